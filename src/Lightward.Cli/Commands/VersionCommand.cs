@@ -1,0 +1,12 @@
+using Spectre.Console.Cli;
+
+namespace Lightward.Cli.Commands;
+
+public sealed class VersionCommand : Command
+{
+    public override int Execute(CommandContext context, CancellationToken cancellationToken)
+    {
+        Console.WriteLine($"lightward {typeof(VersionCommand).Assembly.GetName().Version?.ToString(3)}");
+        return 0;
+    }
+}
