@@ -40,6 +40,9 @@ public readonly record struct LorentzFrame(Velocity Velocity, Rotation Orientati
         }
     }
 
+    // Written out: the generated record printer would follow Inverse → Inverse → … without end.
+    public override string ToString() => $"LorentzFrame({Velocity}, {Orientation})";
+
     /// <summary>Row-major 4×4 matrix (t, x, y, z); for tests and diagnostics at moderate rapidity.</summary>
     public double[,] ToMatrix()
     {

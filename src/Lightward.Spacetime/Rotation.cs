@@ -43,6 +43,9 @@ public readonly record struct Rotation(double W, double X, double Y, double Z)
 
     public Rotation Inverse => new(W, -X, -Y, -Z);
 
+    // Written out: the generated record printer would follow Inverse → Inverse → … without end.
+    public override string ToString() => FormattableString.Invariant($"Rotation(w={W:G9}, x={X:G9}, y={Y:G9}, z={Z:G9})");
+
     /// <summary>Composition: (a * b).Rotate(v) == a.Rotate(b.Rotate(v)).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public static Rotation operator *(Rotation a, Rotation b) => new(

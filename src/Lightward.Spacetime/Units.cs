@@ -110,6 +110,36 @@ public static class Quantity
         return false;
     }
 
+    /// <summary>
+    /// Reads how fast something goes as a rapidity: a speed below c (<c>0.8 c</c>, <c>12 km/s</c>), a rapidity
+    /// (<c>2.5 rapidity</c>) or a Lorentz factor (<c>10 gamma</c>). Rapidity and γ stay exact where β would round to 1.
+    /// </summary>
+    public static double ParseRapidity(string? text, string field)
+    {
+        string trimmed = (text ?? "").Trim();
+        const string allowed = "a speed below c such as '0.8 c' or '12 km/s', a rapidity such as '2.5 rapidity', or a Lorentz factor such as '10 gamma'";
+        foreach ((string suffix, Func<double, double?> toRapidity) in RapidityForms)
+        {
+            if (!trimmed.EndsWith(suffix, StringComparison.Ordinal)) continue;
+            string number = trimmed[..^suffix.Length].Trim();
+            if (double.TryParse(number, NumberStyles.Float, CultureInfo.InvariantCulture, out double magnitude) && double.IsFinite(magnitude)
+                && toRapidity(magnitude) is double rapidity)
+                return rapidity;
+            throw new QuantityFormatException($"{field}: '{trimmed}' is not a valid{suffix}; expected {allowed} (rapidity ≥ 0, gamma ≥ 1)");
+        }
+        if (!TryParse(trimmed, Dimension.Speed, out double speed, out _))
+            throw new QuantityFormatException($"{field}: cannot read '{trimmed}'; expected {allowed}");
+        if (!(speed >= 0 && speed < 1))
+            throw new QuantityFormatException($"{field}: speed '{trimmed}' must be at least 0 and below c; for speeds too close to c to write, use '<n> rapidity' or '<n> gamma'");
+        return Math.Atanh(speed);
+    }
+
+    private static readonly (string Suffix, Func<double, double?> ToRapidity)[] RapidityForms =
+    [
+        (" rapidity", r => r >= 0 ? r : null),
+        (" gamma", g => g >= 1 ? HyperbolicMath.AcoshOnePlus(g - 1) : null),
+    ];
+
     /// <summary>Formats an internal value in the given unit, e.g. Format(x, Dimension.Length, "ly").</summary>
     public static double In(double internalValue, Dimension dimension, string unit)
     {

@@ -9,7 +9,10 @@ public static class CliRunner
 
     public static Result Run(params string[] arguments) => RunIn(Directory.GetCurrentDirectory(), arguments);
 
-    public static Result RunIn(string workingDirectory, params string[] arguments)
+    public static Result RunIn(string workingDirectory, params string[] arguments) => RunWith(workingDirectory, new Dictionary<string, string>(), arguments);
+
+    /// <summary>Runs with extra environment variables (e.g. DISPLAY for the window tests).</summary>
+    public static Result RunWith(string workingDirectory, IReadOnlyDictionary<string, string> environment, params string[] arguments)
     {
         string dll = Path.Combine(AppContext.BaseDirectory, "lightward.dll");
         var start = new ProcessStartInfo("dotnet") { WorkingDirectory = workingDirectory, RedirectStandardOutput = true, RedirectStandardError = true };
@@ -17,6 +20,7 @@ public static class CliRunner
         foreach (string argument in arguments) start.ArgumentList.Add(argument);
         start.Environment["NO_COLOR"] = "1";
         start.Environment.Remove("DISPLAY");
+        foreach ((string name, string value) in environment) start.Environment[name] = value;
         using var process = Process.Start(start)!;
         Task<string> stdout = process.StandardOutput.ReadToEndAsync();
         Task<string> stderr = process.StandardError.ReadToEndAsync();

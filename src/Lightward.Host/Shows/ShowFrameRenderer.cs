@@ -1,0 +1,137 @@
+using Lightward.Audio;
+using Lightward.Rendering;
+using Lightward.Rendering.Instruments;
+using Lightward.Scenarios.Shows;
+using Lightward.Spacetime;
+using SkiaSharp;
+
+namespace Lightward.Host.Shows;
+
+/// <summary>How a show is rendered: the camera (projection, size, dome aperture and tilt, exposure), the frame rate and mirror flips.</summary>
+/// <param name="FlipHorizontal">Mirror left ↔ right (for projectors or dome masters that expect it).</param>
+/// <param name="FlipVertical">Mirror top ↔ bottom.</param>
+/// <param name="Threads">Threads to render with; −1 for all cores. The pictures do not depend on it.</param>
+public sealed record ShowRenderSettings(Camera Camera, FrameRate FrameRate, bool FlipHorizontal, bool FlipVertical, int Threads = -1);
+
+/// <summary>
+/// Draws one frame of a show: the sky from the ship at that show time (<see cref="FrameRenderer"/>), the instruments
+/// eased in and out, the caption, the fade, then the flips. A frame depends only on its number, never on which frames
+/// were drawn before, so shards and resumed renders give the same bytes.
+/// </summary>
+public sealed class ShowFrameRenderer : IDisposable
+{
+    private readonly ShowTimeline _timeline;
+    private readonly Scene _scene;
+    private readonly ShowRenderSettings _settings;
+    private readonly FrameRenderer _renderer;
+    private readonly InstrumentOverlay _instruments = new();
+    private readonly SKTypeface _captionFace = BundledFonts.Load(BundledFonts.SansFileName);
+    private readonly byte[] _fadeTable = new byte[256];
+    private byte[] _beforeInstruments = [];
+
+    public ShowFrameRenderer(ShowTimeline timeline, Scene scene, ShowRenderSettings settings)
+    {
+        _timeline = timeline;
+        _scene = scene;
+        _settings = settings;
+        _renderer = new FrameRenderer(settings.Threads);
+    }
+
+    /// <summary>Show time of frame <paramref name="frame"/> (1-based): (frame − 1) / fps, as an exact fraction.</summary>
+    public double TimeOf(int frame) => (double)(frame - 1) * _settings.FrameRate.Denominator / _settings.FrameRate.Numerator;
+
+    public void Render(int frame, RgbaImage image)
+    {
+        ShowMoment moment = _timeline.At(TimeOf(frame));
+        Camera camera = _settings.Camera.Kind == ProjectionKind.Perspective ? _settings.Camera with { FieldOfView = moment.FieldOfView } : _settings.Camera;
+        _renderer.Render(_scene, new Observer(moment.Ship, moment.Look), camera, image);
+        if (moment.InstrumentsOpacity > 0) DrawInstruments(moment, image);
+        if (moment.CaptionOpacity > 0 && moment.Caption.Length > 0) DrawCaption(moment.Caption, moment.CaptionOpacity, image);
+        if (moment.Fade < 1) Fade(moment.Fade, image);
+        if (_settings.FlipHorizontal || _settings.FlipVertical) Flip(image, _settings.FlipHorizontal, _settings.FlipVertical);
+    }
+
+    private void DrawInstruments(ShowMoment moment, RgbaImage image)
+    {
+        var trace = new WorldlineTrace();
+        foreach (ShipState sample in _timeline.WorldlineUpTo(moment.ShowTime)) trace.Record(sample.Position);
+        trace.Record(moment.Ship.Position);
+        double acceleration = _timeline.ProperAccelerationAt(moment.ShowTime);
+        var controls = new Controls(new Vec3(0, 0, acceleration), Vec3.Zero);
+        string compression = FormattableString.Invariant($"x{moment.TimeCompression:G3}");
+        var readings = FlightReadings.Of(moment.Ship, null, acceleration != 0 ? 1 : 0, controls, double.NaN, compression, false, "", "");
+        if (moment.InstrumentsOpacity >= 1)
+        {
+            _instruments.Draw(image.Pixels, image.Width, image.Height, readings, trace);
+            return;
+        }
+        // Eased in or out: blend the drawn instruments over the picture without them.
+        if (_beforeInstruments.Length != image.Pixels.Length) _beforeInstruments = new byte[image.Pixels.Length];
+        image.Pixels.CopyTo(_beforeInstruments, 0);
+        _instruments.Draw(image.Pixels, image.Width, image.Height, readings, trace);
+        float opacity = (float)moment.InstrumentsOpacity;
+        byte[] pixels = image.Pixels;
+        for (int i = 0; i < pixels.Length; i++)
+            pixels[i] = (byte)(_beforeInstruments[i] + (pixels[i] - _beforeInstruments[i]) * opacity + 0.5f);
+    }
+
+    /// <summary>
+    /// White text with a dark halo, centred. On a dome master the bottom edge is the front of the dome, so the caption
+    /// sits 30% of the radius in from the bottom edge, about 36° above the front springline of a level dome.
+    /// </summary>
+    private unsafe void DrawCaption(string caption, double opacity, RgbaImage image)
+    {
+        var info = new SKImageInfo(image.Width, image.Height, SKColorType.Rgba8888, SKAlphaType.Premul);
+        fixed (byte* pixels = image.Pixels)
+        {
+            using SKSurface surface = SKSurface.Create(info, (IntPtr)pixels, info.RowBytes);
+            SKCanvas canvas = surface.Canvas;
+            float size = Math.Max(8, image.Height / 24f);
+            using var font = new SKFont(_captionFace, size);
+            float width = font.MeasureText(caption);
+            float scale = Math.Min(1, image.Width * 0.8f / Math.Max(1, width));
+            font.Size = size * scale;
+            float baseline = _settings.Camera.Kind == ProjectionKind.Domemaster ? image.Height * 0.85f : image.Height * 0.9f;
+            byte alpha = (byte)Math.Round(255 * Math.Clamp(opacity, 0, 1));
+            using var halo = new SKPaint { Color = new SKColor(0, 0, 0, alpha), IsAntialias = true, Style = SKPaintStyle.Stroke, StrokeWidth = font.Size / 6 };
+            using var fill = new SKPaint { Color = new SKColor(255, 255, 255, alpha), IsAntialias = true };
+            canvas.DrawText(caption, image.Width / 2f, baseline, SKTextAlign.Center, font, halo);
+            canvas.DrawText(caption, image.Width / 2f, baseline, SKTextAlign.Center, font, fill);
+            canvas.Flush();
+        }
+    }
+
+    /// <summary>Scales the light itself (linear values, IEC 61966-2-1 decoding and encoding), so a fade looks even on the dome.</summary>
+    private void Fade(double level, RgbaImage image)
+    {
+        for (int i = 0; i < 256; i++)
+            _fadeTable[i] = (byte)Math.Round(255 * SrgbTransfer.Encode(SrgbTransfer.Decode(i / 255.0) * level));
+        byte[] pixels = image.Pixels;
+        for (int i = 0; i < pixels.Length; i += 4)
+        {
+            pixels[i] = _fadeTable[pixels[i]];
+            pixels[i + 1] = _fadeTable[pixels[i + 1]];
+            pixels[i + 2] = _fadeTable[pixels[i + 2]];
+        }
+    }
+
+    private static void Flip(RgbaImage image, bool horizontal, bool vertical)
+    {
+        Span<uint> pixels = System.Runtime.InteropServices.MemoryMarshal.Cast<byte, uint>(image.Pixels.AsSpan());
+        int width = image.Width, height = image.Height;
+        if (horizontal)
+            for (int y = 0; y < height; y++) pixels.Slice(y * width, width).Reverse();
+        if (vertical)
+            for (int top = 0, bottom = height - 1; top < bottom; top++, bottom--)
+            {
+                Span<uint> a = pixels.Slice(top * width, width), b = pixels.Slice(bottom * width, width);
+                for (int x = 0; x < width; x++) (a[x], b[x]) = (b[x], a[x]);
+            }
+    }
+
+    public void Dispose()
+    {
+        _instruments.Dispose();
+        _captionFace.Dispose();
+    }
+}

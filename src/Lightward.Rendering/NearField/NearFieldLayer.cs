@@ -1,0 +1,77 @@
+using Lightward.Rendering.Projections;
+using Lightward.Spacetime;
+
+namespace Lightward.Rendering.NearField;
+
+/// <summary>A body and how it looks this frame (null when none of its light reaches the camera yet).</summary>
+public readonly record struct BodyView(NearFieldBody Body, BodyAppearance? Appearance);
+
+/// <summary>
+/// The near field as a frame layer: bodies seen at their retarded positions, drawn as opaque surfaces with their own
+/// depth buffer, then the grid of space drawn in front of or behind them. Keeps its buffers between frames (they are
+/// rebuilt only when the projection changes).
+/// </summary>
+public sealed class NearFieldLayer : IFrameLayer
+{
+    /// <summary>
+    /// Margin on the projection's reference pixel scale for the split test: pixels away from the reference point
+    /// (toward the edge of a wide flat screen) are smaller in angle.
+    /// </summary>
+    private const double PixelScaleMargin = 1.5;
+
+    private readonly BodyImager[] _imagers;
+    private readonly GridImager _gridImager = new();
+    private readonly List<SkyTriangle> _triangles = [];
+    private readonly List<PixelSegment> _segments = [];
+    private readonly BodyView[] _views;
+    private SkyRasterizer? _rasterizer;
+
+    public NearFieldLayer(IEnumerable<NearFieldBody> bodies, SpaceGrid? grid)
+    {
+        _imagers = bodies.Select(b => new BodyImager(b)).ToArray();
+        _views = _imagers.Select(i => new BodyView(i.Body, null)).ToArray();
+        Grid = grid;
+    }
+
+    public SpaceGrid? Grid { get; }
+
+    /// <summary>Each body as the last frame saw it, in the order given.</summary>
+    public IReadOnlyList<BodyView> LastViews => _views;
+
+    /// <summary>How each body looks from <paramref name="ship"/> (directions in the axes <paramref name="cameraToShip"/> maps from), without drawing.</summary>
+    public IReadOnlyList<BodyView> Look(ShipState ship, Rotation cameraToShip)
+    {
+        for (int i = 0; i < _imagers.Length; i++) _views[i] = new BodyView(_imagers[i].Body, _imagers[i].Look(ship, cameraToShip));
+        return _views;
+    }
+
+    public void Draw(FrameContext frame) =>
+        Draw(frame.Hdr, frame.Projection, frame.Observer.Ship, frame.CameraToShip, frame.Parallel);
+
+    /// <summary>Bodies → sky triangles → surface layer over the frame → grid lines (depth-tested against the surfaces).</summary>
+    public void Draw(HdrFrame hdr, Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
+    {
+        SkyRasterizer rasterizer = RasterizerFor(projection);
+        Look(ship, cameraToShip);
+        _triangles.Clear();
+        double pixelsPerRadian = PixelScaleMargin / Math.Sqrt(projection.ReferencePixelSolidAngle);
+        for (int i = 0; i < _imagers.Length; i++)
+            if (_views[i].Appearance is not null)
+                _imagers[i].AppendTriangles(_triangles, pixelsPerRadian, projection.ReferencePixelSolidAngle);
+        rasterizer.Draw(System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_triangles), parallel);
+        rasterizer.CompositeOver(hdr.Red, hdr.Green, hdr.Blue);
+        if (Grid is not null)
+        {
+            _segments.Clear();
+            _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, projection, _segments);
+            LineDrawer.Draw(_segments, hdr, rasterizer, parallel);
+        }
+        rasterizer.Clear();
+    }
+
+    private SkyRasterizer RasterizerFor(Projection projection)
+    {
+        if (_rasterizer?.Projection != projection) _rasterizer = new SkyRasterizer(new PixelDirections(projection));
+        return _rasterizer;
+    }
+}

@@ -1,0 +1,57 @@
+using Lightward.Spacetime;
+
+namespace Lightward.Rendering.NearField;
+
+/// <summary>
+/// The grid of space: straight lines along the three axes of an inertial frame, through every lattice point
+/// (multiples of <see cref="Spacing"/>), shown within <see cref="Extent"/> of the camera in that frame and fading out
+/// over the outer part of that sphere so lines never pop in or out. The lines are at rest in the frame whose origin
+/// event is <see cref="Origin"/> and whose axes map to home by <see cref="Frame"/> (the home frame by default; a
+/// body's rest frame as an option). They glow like a blackbody of <see cref="Temperature"/>, so a camera moving
+/// through the lattice sees them bluer and brighter ahead and redder and fainter behind.
+/// </summary>
+/// <param name="Spacing">Distance between neighbouring parallel lines, light-seconds.</param>
+/// <param name="Extent">Radius around the camera within which lines are drawn, light-seconds.</param>
+/// <param name="Brightness">HDR value of a line pixel at D = 1 (1 = a V = 0 star on the reference pixel).</param>
+public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin, LorentzFrame Frame, double Temperature = 6500, double Brightness = 2)
+{
+    /// <summary>Lines farther apart than this many spacings from the camera are not drawn (keeps the line count bounded).</summary>
+    public const int MaxLinesPerSide = 40;
+
+    /// <summary>A grid at rest in the home frame.</summary>
+    public static SpaceGrid AtRestInHome(double spacing, double extent) => new(spacing, extent, new FourVector(0, 0, 0, 0), LorentzFrame.Identity);
+
+    /// <summary>
+    /// The pieces of lattice lines inside the extent sphere around <paramref name="camera"/> (a position in the grid's
+    /// frame), each as its two ends on that sphere.
+    /// </summary>
+    public IEnumerable<(Vec3 From, Vec3 To)> LinesAround(Vec3 camera)
+    {
+        int reach = Math.Min(MaxLinesPerSide, (int)Math.Ceiling(Extent / Spacing));
+        for (int axis = 0; axis < 3; axis++)
+        {
+            Vec3 along = axis == 0 ? Vec3.UnitX : axis == 1 ? Vec3.UnitY : Vec3.UnitZ;
+            Vec3 first = axis == 0 ? Vec3.UnitY : Vec3.UnitX, second = axis == 2 ? Vec3.UnitY : Vec3.UnitZ;
+            long baseI = (long)Math.Round(Vec3.Dot(camera, first) / Spacing), baseJ = (long)Math.Round(Vec3.Dot(camera, second) / Spacing);
+            for (long i = baseI - reach; i <= baseI + reach; i++)
+                for (long j = baseJ - reach; j <= baseJ + reach; j++)
+                {
+                    // The line's point nearest the camera, and the half-chord of the extent sphere it runs through.
+                    Vec3 foot = i * Spacing * first + j * Spacing * second + Vec3.Dot(camera, along) * along;
+                    double offAxis = (foot - camera).LengthSquared;
+                    double halfChord = Extent * Extent - offAxis;
+                    if (halfChord <= 0) continue;
+                    halfChord = Math.Sqrt(halfChord);
+                    yield return (foot - halfChord * along, foot + halfChord * along);
+                }
+        }
+    }
+
+    /// <summary>Brightness fraction of a line point at <paramref name="distance"/> from the camera: 1 inside, 0 at the extent.</summary>
+    public double Fade(double distance)
+    {
+        // Smoothstep over the outer third of the extent sphere.
+        double x = Math.Clamp((Extent - distance) / (Extent / 3), 0, 1);
+        return x * x * (3 - 2 * x);
+    }
+}

@@ -1,0 +1,47 @@
+using Lightward.Spacetime;
+
+namespace Lightward.Rendering.NearField;
+
+/// <summary>
+/// The smallest cone around the image's central direction that holds every pixel's direction (camera axes), so that
+/// triangles and line pieces wholly outside the picture are dropped before any per-pixel work.
+/// </summary>
+public readonly record struct ViewCap(Vec3 Centre, double Radius)
+{
+    /// <summary>The cap of a cached pixel-direction table: centred on the middle pixel, reaching the farthest pixel.</summary>
+    public static ViewCap Of(PixelDirections directions)
+    {
+        int width = directions.Projection.Width, height = directions.Projection.Height;
+        int middle = height / 2 * width + width / 2;
+        Vec3 centre = new Vec3(directions.X[middle], directions.Y[middle], directions.Z[middle]).NormalizedOr(Vec3.UnitZ);
+        double radius = 0;
+        // The farthest pixel lies on the image's border or on the edge of a dome's disc; a stride of 2 misses at most a pixel's angle.
+        for (int y = 0; y < height; y += 2)
+            for (int x = 0; x < width; x += 2)
+            {
+                int i = y * width + x;
+                if (float.IsNaN(directions.X[i])) continue;
+                radius = Math.Max(radius, Vec3.AngleBetween(centre, new Vec3(directions.X[i], directions.Y[i], directions.Z[i])));
+            }
+        return new ViewCap(centre, Math.Min(Math.PI, radius + 0.01));
+    }
+
+    /// <summary>True when a cone of half-angle <paramref name="radius"/> around unit <paramref name="direction"/> cannot touch the image.</summary>
+    public bool Misses(Vec3 direction, double radius) => Vec3.AngleBetween(Centre, direction) > Radius + radius;
+
+    /// <summary>True when the great-circle arc from unit <paramref name="from"/> to unit <paramref name="to"/>, widened by <paramref name="margin"/>, cannot touch the image.</summary>
+    public bool MissesArc(Vec3 from, Vec3 to, double margin)
+    {
+        double nearest = Math.Min(Vec3.AngleBetween(Centre, from), Vec3.AngleBetween(Centre, to));
+        Vec3 normal = Vec3.Cross(from, to);
+        double normalLength = normal.Length;
+        if (normalLength > 0)
+        {
+            // The point of the full great circle nearest the centre; it counts only if it lies between the ends.
+            Vec3 foot = (Centre - Vec3.Dot(Centre, normal) / (normalLength * normalLength) * normal).NormalizedOr(from);
+            if (Vec3.Dot(Vec3.Cross(from, foot), normal) >= 0 && Vec3.Dot(Vec3.Cross(foot, to), normal) >= 0)
+                nearest = Math.Min(nearest, Vec3.AngleBetween(Centre, foot));
+        }
+        return nearest > Radius + margin;
+    }
+}

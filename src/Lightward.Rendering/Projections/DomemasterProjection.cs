@@ -1,0 +1,118 @@
+using System.Numerics;
+using System.Runtime.InteropServices;
+using Lightward.Spacetime;
+
+namespace Lightward.Rendering.Projections;
+
+/// <summary>
+/// The fulldome master frame: a square image holding a disc in the azimuthal-equidistant (angular fisheye) projection,
+/// the dome's zenith (camera +Z) at the centre and the angle from the zenith proportional to the distance from the
+/// centre, so the rim is at half the aperture (90° for the usual 180° dome). Camera +X is image right and camera +Y
+/// image up; the camera rig (see <see cref="Camera"/>) points image-down at the front, as fulldome practice expects.
+/// A pixel at angle θ from the zenith spans k²·sinθ/θ sr, k the angle per pixel.
+/// </summary>
+public sealed class DomemasterProjection : Projection
+{
+    private readonly float _centre, _anglePerPixel, _halfAperture;
+
+    public DomemasterProjection(int size, double aperture) : base(size, size)
+    {
+        if (!(aperture > 0 && aperture <= 2 * Math.PI))
+            throw new ArgumentOutOfRangeException(nameof(aperture), "aperture must lie in (0, 360] degrees");
+        Aperture = aperture;
+        AnglePerPixel = aperture / 2 / (size / 2.0);
+        _centre = size / 2f;
+        _anglePerPixel = (float)AnglePerPixel;
+        _halfAperture = (float)(aperture / 2);
+    }
+
+    /// <summary>Full angle across the disc, radians (π for a hemisphere).</summary>
+    public double Aperture { get; }
+
+    /// <summary>Angle from the zenith per pixel of distance from the centre, radians.</summary>
+    public double AnglePerPixel { get; }
+
+    public override double ReferencePixelSolidAngle => AnglePerPixel * AnglePerPixel;
+
+    public override bool TryProject(Vec3 direction, out double x, out double y)
+    {
+        double across = Math.Sqrt(direction.X * direction.X + direction.Y * direction.Y);
+        double zenithAngle = Math.Atan2(across, direction.Z);
+        double radius = zenithAngle / AnglePerPixel;
+        double scale = across > 0 ? radius / across : 0;
+        x = Width / 2.0 + scale * direction.X;
+        y = Height / 2.0 - scale * direction.Y;
+        return zenithAngle <= Aperture / 2 && x >= 0 && x < Width && y >= 0 && y < Height;
+    }
+
+    public override bool TryUnproject(double x, double y, out Vec3 direction)
+    {
+        double right = x - Width / 2.0, up = Height / 2.0 - y;
+        double radius = Math.Sqrt(right * right + up * up);
+        double zenithAngle = radius * AnglePerPixel;
+        double sinOverRadius = radius > 0 ? Math.Sin(zenithAngle) / radius : AnglePerPixel;
+        direction = new Vec3(sinOverRadius * right, sinOverRadius * up, Math.Cos(zenithAngle));
+        return zenithAngle <= Aperture / 2;
+    }
+
+    public override double RadianceScale(Vec3 direction)
+    {
+        double zenithAngle = Vec3.AngleBetween(direction, Vec3.UnitZ);
+        return ZenithRadianceScale(zenithAngle, Math.Sin(zenithAngle), AnglePerPixel / 2);
+    }
+
+    /// <summary>
+    /// θ / sin θ, the ratio of the centre pixel's solid angle to one at zenith angle θ. Near the zenith it tends to 1;
+    /// at the anti-zenith of a 360° disc half a pixel's angle bounds sin θ away from zero.
+    /// </summary>
+    private static double ZenithRadianceScale(double zenithAngle, double sine, double minimumSine) =>
+        zenithAngle < Math.PI / 2 ? (sine > 1e-4 ? zenithAngle / sine : 1) : zenithAngle / Math.Max(sine, minimumSine);
+
+    public override void ProjectDirections(ReadOnlySpan<float> dx, ReadOnlySpan<float> dy, ReadOnlySpan<float> dz,
+        Span<float> x, Span<float> y, Span<float> radianceScale)
+    {
+        float minimumSine = _anglePerPixel / 2;
+        for (int i = 0; i < dx.Length; i++)
+        {
+            float across = MathF.Sqrt(dx[i] * dx[i] + dy[i] * dy[i]);
+            float zenithAngle = MathF.Atan2(across, dz[i]);
+            float scale = across > 0 ? zenithAngle / _anglePerPixel / across : 0;
+            float px = _centre + scale * dx[i], py = _centre - scale * dy[i];
+            x[i] = zenithAngle <= _halfAperture && WithinMargin(px, py) ? px : float.NaN;
+            y[i] = py;
+            radianceScale[i] = (float)ZenithRadianceScale(zenithAngle, across, minimumSine);
+        }
+    }
+
+    public override void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz)
+    {
+        float up = _centre - (row + 0.5f);
+        var upVector = new Vector<float>(up);
+        var step = new Vector<float>(Vector<float>.Count);
+        var anglePerPixel = new Vector<float>(_anglePerPixel);
+        var halfAperture = new Vector<float>(_halfAperture);
+        var noDirection = new Vector<float>(float.NaN);
+        Vector<float> right = PixelCentreOffsets(0, _centre);
+        int vectorCount = Width / Vector<float>.Count;
+        Span<Vector<float>> outX = MemoryMarshal.Cast<float, Vector<float>>(dx), outY = MemoryMarshal.Cast<float, Vector<float>>(dy), outZ = MemoryMarshal.Cast<float, Vector<float>>(dz);
+        for (int i = 0; i < vectorCount; i++, right += step)
+        {
+            // Pixel centres are never exactly at the disc centre for the even sizes used, but guard odd sizes.
+            Vector<float> radius = Vector.Max(Vector.SquareRoot(right * right + upVector * upVector), new Vector<float>(1e-6f));
+            Vector<float> zenithAngle = radius * anglePerPixel;
+            (Vector<float> sine, Vector<float> cosine) = Vector.SinCos(zenithAngle);
+            Vector<float> sinOverRadius = sine / radius;
+            Vector<int> inside = Vector.LessThanOrEqual(zenithAngle, halfAperture);
+            outX[i] = Vector.ConditionalSelect(inside, sinOverRadius * right, noDirection);
+            outY[i] = Vector.ConditionalSelect(inside, sinOverRadius * upVector, noDirection);
+            outZ[i] = Vector.ConditionalSelect(inside, cosine, noDirection);
+        }
+        for (int column = vectorCount * Vector<float>.Count; column < Width; column++)
+        {
+            bool inside = TryUnproject(column + 0.5, row + 0.5, out Vec3 direction);
+            dx[column] = inside ? (float)direction.X : float.NaN;
+            dy[column] = inside ? (float)direction.Y : float.NaN;
+            dz[column] = inside ? (float)direction.Z : float.NaN;
+        }
+    }
+}

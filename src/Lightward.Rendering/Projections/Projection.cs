@@ -1,0 +1,66 @@
+using System.Numerics;
+using Lightward.Spacetime;
+
+namespace Lightward.Rendering.Projections;
+
+/// <summary>
+/// Maps directions in camera axes (+Z the view axis, +X right, +Y up) to image pixels and back. Pixel coordinates run
+/// x to the right and y downward; pixel (i, j) covers [i, i+1) × [j, j+1), so its centre is (i + ½, j + ½).
+/// Besides the mapping each projection knows its pixels' solid angles, because the HDR frame holds radiance: a star's
+/// flux is divided over the solid angle of the pixel it lands on, relative to the <see cref="ReferencePixelSolidAngle"/>.
+/// </summary>
+public abstract class Projection
+{
+    /// <summary>How far outside the image a star may land and still be kept, so the halo of a star just off the edge shows.</summary>
+    public const float StarMargin = 64;
+
+    protected Projection(int width, int height)
+    {
+        if (width <= 0 || height <= 0) throw new ArgumentOutOfRangeException(nameof(width), "image size must be positive");
+        Width = width;
+        Height = height;
+    }
+
+    public int Width { get; }
+    public int Height { get; }
+
+    /// <summary>Solid angle (sr) of the image's reference pixel (its centre); HDR values are radiance × this.</summary>
+    public abstract double ReferencePixelSolidAngle { get; }
+
+    /// <summary>Unit direction in camera axes → pixel position; false when the direction is not on the image.</summary>
+    public abstract bool TryProject(Vec3 direction, out double x, out double y);
+
+    /// <summary>Pixel position → unit direction in camera axes; false where the image shows no direction (outside a dome's disc).</summary>
+    public abstract bool TryUnproject(double x, double y, out Vec3 direction);
+
+    /// <summary>Reference pixel solid angle ÷ the solid angle of a pixel at <paramref name="direction"/> (camera axes, unit).</summary>
+    public abstract double RadianceScale(Vec3 direction);
+
+    /// <summary>
+    /// Projects unit directions (camera axes, flat arrays) to pixel positions and radiance scales; a direction that
+    /// does not land within <see cref="StarMargin"/> of the image gets x = NaN. Single-precision and vectorised where
+    /// the mapping allows; each index is written independently, so callers may split the range across threads.
+    /// </summary>
+    public abstract void ProjectDirections(ReadOnlySpan<float> dx, ReadOnlySpan<float> dy, ReadOnlySpan<float> dz,
+        Span<float> x, Span<float> y, Span<float> radianceScale);
+
+    /// <summary>Unit directions (camera axes) through the centres of one row's pixels; NaN where the image shows no direction.</summary>
+    public abstract void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz);
+
+    /// <summary>True when (x, y) lies within the kept margin around the image.</summary>
+    protected bool WithinMargin(float x, float y) =>
+        x >= -StarMargin && x <= Width + StarMargin && y >= -StarMargin && y <= Height + StarMargin;
+
+    /// <summary>Vector form of <see cref="WithinMargin(float, float)"/>.</summary>
+    protected Vector<int> WithinMargin(Vector<float> x, Vector<float> y) =>
+        Vector.GreaterThanOrEqual(x, new Vector<float>(-StarMargin)) & Vector.LessThanOrEqual(x, new Vector<float>(Width + StarMargin))
+        & Vector.GreaterThanOrEqual(y, new Vector<float>(-StarMargin)) & Vector.LessThanOrEqual(y, new Vector<float>(Height + StarMargin));
+
+    /// <summary>The x coordinates of one row's pixel centres relative to <paramref name="centreX"/>, for the vectorised row loops.</summary>
+    protected static Vector<float> PixelCentreOffsets(int firstColumn, float centreX)
+    {
+        Span<float> lanes = stackalloc float[Vector<float>.Count];
+        for (int lane = 0; lane < lanes.Length; lane++) lanes[lane] = firstColumn + lane + 0.5f - centreX;
+        return new Vector<float>(lanes);
+    }
+}

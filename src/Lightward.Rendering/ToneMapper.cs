@@ -1,0 +1,95 @@
+using System.Runtime.CompilerServices;
+using System.Runtime.Intrinsics;
+using System.Runtime.Intrinsics.X86;
+
+namespace Lightward.Rendering;
+
+/// <summary>
+/// HDR → display. Each linear channel is scaled by the exposure, compressed by the extended Reinhard curve
+/// t = x (1 + x / W²) / (1 + x) (Reinhard et al., "Photographic Tone Reproduction for Digital Images", SIGGRAPH 2002,
+/// eq. 4) with white point W = <see cref="White"/>, clipped to 1, and encoded with the IEC 61966-2-1 transfer
+/// function to 8-bit sRGB. Applied per channel, the curve keeps faint colours and lets a bright star's channels
+/// converge to white as it saturates, instead of clipping it into a flat coloured disc.
+/// </summary>
+public static class ToneMapper
+{
+    /// <summary>Exposed linear value that reaches display white.</summary>
+    public const float White = 16;
+
+    /// <summary>Entries of the curve-output → 8-bit table: fine enough that the steepest part of the sRGB curve stays within one code value.</summary>
+    private const int TableSize = 16384;
+
+    private const float InverseWhiteSquared = 1 / (White * White);
+
+    /// <summary>round(255 · sRGB(t)) for t = i / (TableSize − 1), as ints so that whole vectors gather at once.</summary>
+    private static readonly int[] EncodedTable = BuildEncodedTable();
+
+    /// <summary>The tone curve for one exposed linear value, in [0, 1].</summary>
+    public static float Curve(float exposed)
+    {
+        // Clamping the input first keeps huge and infinite values white (the curve is exactly 1 at W); NaN goes to 0.
+        float x = exposed > 0 ? exposed : 0;
+        x = x < White ? x : White;
+        return MathF.Min(1, x * (1 + x * InverseWhiteSquared) / (1 + x));
+    }
+
+    /// <summary>The 8-bit sRGB code the mapper writes for a tone-curve output <paramref name="display"/> in [0, 1].</summary>
+    public static byte Encode8(float display) => (byte)EncodedTable[TableIndex(display)];
+
+    /// <summary>
+    /// Tone maps rows [<paramref name="firstRow"/>, <paramref name="endRow"/>) of <paramref name="hdr"/> into RGBA8
+    /// pixels (R, G, B, A bytes in memory order; alpha 255) at <paramref name="rgba"/>, which holds the whole image.
+    /// </summary>
+    public static unsafe void MapRows(HdrFrame hdr, float exposureScale, uint* rgba, int firstRow, int endRow)
+    {
+        int start = firstRow * hdr.Width, end = endRow * hdr.Width;
+        int pixel = start;
+        fixed (float* red = hdr.Red, green = hdr.Green, blue = hdr.Blue)
+        fixed (int* table = EncodedTable)
+        {
+            if (Avx2.IsSupported)
+            {
+                var scale = Vector256.Create(exposureScale);
+                var opaque = Vector256.Create(unchecked((int)0xFF000000));
+                for (; pixel + Vector256<float>.Count <= end; pixel += Vector256<float>.Count)
+                {
+                    Vector256<int> r = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(red + pixel) * scale), 4);
+                    Vector256<int> g = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(green + pixel) * scale), 4);
+                    Vector256<int> b = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(blue + pixel) * scale), 4);
+                    Vector256<int> packed = r | Avx2.ShiftLeftLogical(g, 8) | Avx2.ShiftLeftLogical(b, 16) | opaque;
+                    Avx.Store((int*)rgba + pixel, packed);
+                }
+            }
+            for (; pixel < end; pixel++)
+            {
+                uint r = (uint)table[TableIndex(Curve(red[pixel] * exposureScale))];
+                uint g = (uint)table[TableIndex(Curve(green[pixel] * exposureScale))];
+                uint b = (uint)table[TableIndex(Curve(blue[pixel] * exposureScale))];
+                rgba[pixel] = r | g << 8 | b << 16 | 0xFF000000u;
+            }
+        }
+    }
+
+    /// <summary>The curve and table index for eight exposed values; NaN and negatives go to 0.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector256<int> TableIndex(Vector256<float> exposed)
+    {
+        Vector256<float> one = Vector256<float>.One, white = Vector256.Create(White);
+        // Same clamps as Curve: comparisons are false for NaN, so NaN falls to 0 and the index never leaves the table.
+        Vector256<float> x = Vector256.ConditionalSelect(Vector256.GreaterThan(exposed, Vector256<float>.Zero), exposed, Vector256<float>.Zero);
+        x = Vector256.ConditionalSelect(Vector256.LessThan(x, white), x, white);
+        Vector256<float> curve = Vector256.Min(one, x * (one + x * Vector256.Create(InverseWhiteSquared)) / (one + x));
+        return Avx.ConvertToVector256Int32WithTruncation(curve * Vector256.Create((float)(TableSize - 1)) + Vector256.Create(0.5f));
+    }
+
+    private static int TableIndex(float display) =>
+        display > 0 ? (int)(MathF.Min(display, 1) * (TableSize - 1) + 0.5f) : 0;
+
+    private static int[] BuildEncodedTable()
+    {
+        var table = new int[TableSize];
+        for (int i = 0; i < TableSize; i++)
+            table[i] = (int)Math.Round(255 * SrgbTransfer.Encode(i / (double)(TableSize - 1)), MidpointRounding.AwayFromZero);
+        return table;
+    }
+}

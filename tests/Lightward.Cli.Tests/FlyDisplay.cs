@@ -1,0 +1,81 @@
+using System.Diagnostics;
+
+namespace Lightward.Cli.Tests;
+
+/// <summary>A private X server (Xvfb) on a free display number for the window tests, stopped on dispose.</summary>
+public sealed class FlyDisplay : IDisposable
+{
+    private readonly Process _server;
+
+    private FlyDisplay(Process server, string name)
+    {
+        _server = server;
+        Name = name;
+    }
+
+    /// <summary>The DISPLAY value, e.g. ":97".</summary>
+    public string Name { get; }
+
+    public static bool ToolsInstalled => OnPath("Xvfb") && OnPath("xdotool");
+
+    public const string MissingToolsReason = "Xvfb or xdotool is not installed (apt-get install xvfb xauth xdotool); the window tests need them";
+
+    public static FlyDisplay Start()
+    {
+        for (int number = 97; number < 160; number++)
+        {
+            if (File.Exists($"/tmp/.X{number}-lock") || File.Exists($"/tmp/.X11-unix/X{number}")) continue;
+            var start = new ProcessStartInfo("Xvfb") { RedirectStandardError = true, RedirectStandardOutput = true };
+            foreach (string argument in new[] { $":{number}", "-screen", "0", "1280x720x24", "-nolisten", "tcp" }) start.ArgumentList.Add(argument);
+            var server = Process.Start(start)!;
+            _ = server.StandardError.ReadToEndAsync();
+            _ = server.StandardOutput.ReadToEndAsync();
+            var waited = Stopwatch.StartNew();
+            while (waited.Elapsed < TimeSpan.FromSeconds(15) && !server.HasExited)
+            {
+                if (File.Exists($"/tmp/.X11-unix/X{number}")) return new FlyDisplay(server, $":{number}");
+                Thread.Sleep(50);
+            }
+            // Another server took this number first (or it failed); try the next one.
+            if (!server.HasExited) server.Kill();
+            server.Dispose();
+        }
+        throw new InvalidOperationException("no free X display number between :97 and :159");
+    }
+
+    /// <summary>Runs xdotool against this display and returns what it printed.</summary>
+    public string XDoTool(params string[] arguments)
+    {
+        var start = new ProcessStartInfo("xdotool") { RedirectStandardOutput = true, RedirectStandardError = true };
+        foreach (string argument in arguments) start.ArgumentList.Add(argument);
+        start.Environment["DISPLAY"] = Name;
+        using var process = Process.Start(start)!;
+        Task<string> output = process.StandardOutput.ReadToEndAsync();
+        Task<string> error = process.StandardError.ReadToEndAsync();
+        if (!process.WaitForExit(TimeSpan.FromSeconds(90))) { process.Kill(); throw new TimeoutException($"xdotool {string.Join(' ', arguments)} hung"); }
+        if (process.ExitCode != 0) throw new InvalidOperationException($"xdotool {string.Join(' ', arguments)} failed: {error.Result}");
+        return output.Result;
+    }
+
+    public void Dispose()
+    {
+        if (!_server.HasExited)
+        {
+            _server.Kill();
+            _server.WaitForExit(5000);
+        }
+        _server.Dispose();
+    }
+
+    private static bool OnPath(string program) =>
+        (Environment.GetEnvironmentVariable("PATH") ?? "").Split(':', StringSplitOptions.RemoveEmptyEntries).Any(folder => File.Exists(Path.Combine(folder, program)));
+}
+
+/// <summary>A test that needs an X server; skipped, with the reason, only where Xvfb or xdotool is not installed.</summary>
+public sealed class FlyWindowFactAttribute : FactAttribute
+{
+    public FlyWindowFactAttribute()
+    {
+        if (!FlyDisplay.ToolsInstalled) Skip = FlyDisplay.MissingToolsReason;
+    }
+}

@@ -1,0 +1,58 @@
+namespace Lightward.Rendering.Tests;
+
+public class SrgbTransferTests
+{
+    [Theory]
+    // IEC 61966-2-1:1999 §5.2: V = 12.92 L below L = 0.0031308, the break point where both pieces give V = 0.04045.
+    [InlineData(0.0, 0.0)]
+    [InlineData(0.0031308, 0.0404500)]
+    [InlineData(0.001, 0.01292)]
+    // IEC 61966-2-1:1999 §5.2: V = 1.055 L^(1/2.4) − 0.055, evaluated independently with a calculator
+    // (0.5^(1/2.4) = 0.7491535, 0.18^(1/2.4) = 0.4894371).
+    [InlineData(0.18, 0.461356)]
+    [InlineData(0.5, 0.735357)]
+    [InlineData(1.0, 1.0)]
+    public void Encode_matches_the_IEC_61966_2_1_transfer_function(double linear, double encoded)
+    {
+        Assert.Equal(encoded, SrgbTransfer.Encode(linear), 5);
+        // IEC 61966-2-1:1999 §5.3: the inverse uses the break point 0.04045.
+        Assert.Equal(linear, SrgbTransfer.Decode(encoded), 5);
+    }
+
+    [Fact]
+    public void The_8_bit_code_for_mid_grey_is_the_published_one()
+    {
+        // 8-bit sRGB code 188 ↔ linear 0.5 (the widely tabulated sRGB mid-point; from memory): 255 × 0.735357 = 187.5 → 188.
+        Assert.Equal(188, ToneMapper.Encode8(0.5f));
+        Assert.Equal(0, ToneMapper.Encode8(0f));
+        Assert.Equal(255, ToneMapper.Encode8(1f));
+    }
+
+    [Fact]
+    public void The_tone_mappers_table_stays_within_one_code_of_the_exact_encoding()
+    {
+        // The exact function is IEC 61966-2-1 §5.2; the table may differ by at most one 8-bit step anywhere.
+        for (int i = 0; i <= 100_000; i++)
+        {
+            float display = i / 100_000f;
+            double exact = 255 * SrgbTransfer.Encode(display);
+            Assert.InRange(ToneMapper.Encode8(display), exact - 1, exact + 1);
+        }
+    }
+
+    [Fact]
+    public void The_tone_curve_is_monotonic_reaches_white_at_the_white_point_and_never_leaves_0_to_1()
+    {
+        // Reinhard et al. 2002, eq. 4: L_d = L (1 + L/L_white²) / (1 + L) equals 1 at L = L_white.
+        Assert.Equal(1f, ToneMapper.Curve(ToneMapper.White), 6);
+        Assert.Equal(0f, ToneMapper.Curve(float.NaN));
+        Assert.Equal(1f, ToneMapper.Curve(float.PositiveInfinity));
+        float previous = 0;
+        for (float x = 0; x < 100; x += 0.01f)
+        {
+            float t = ToneMapper.Curve(x);
+            Assert.InRange(t, previous, 1f);
+            previous = t;
+        }
+    }
+}

@@ -1,0 +1,101 @@
+namespace Lightward.Spacetime.Tests;
+
+public class FlightIntegratorTests
+{
+    private static readonly double[,] Minkowski = { { -1, 0, 0, 0 }, { 0, 1, 0, 0 }, { 0, 0, 1, 0 }, { 0, 0, 0, 1 } };
+
+    /// <summary>Largest |ΛᵀηΛ − η| entry: zero for a Lorentz transform (definition of the Lorentz group).</summary>
+    private static double LorentzDefect(LorentzFrame frame)
+    {
+        double[,] m = frame.ToMatrix();
+        double worst = 0;
+        for (int i = 0; i < 4; i++)
+            for (int j = 0; j < 4; j++)
+            {
+                double sum = 0;
+                for (int k = 0; k < 4; k++) sum += m[k, i] * Minkowski[k, k] * m[k, j];
+                worst = Math.Max(worst, Math.Abs(sum - Minkowski[i, j]));
+            }
+        return worst;
+    }
+
+    [Fact]
+    public void A_million_random_control_steps_keep_the_four_velocity_and_frame_exact()
+    {
+        var random = new Random(20261201);
+        Vec3 RandomVector(double size) => size * new Vec3(random.NextDouble() * 2 - 1, random.NextDouble() * 2 - 1, random.NextDouble() * 2 - 1);
+        // 32 random (controls, step) pairs and their reverses, drawn a million times so the rapidity walks without
+        // drifting away: each draw applies a different exact exponential.
+        FlightStep[] steps = Enumerable.Range(0, 32)
+            .Select(_ => (Controls: new Controls(RandomVector(2.0), RandomVector(3.0)), Duration: 1e-3 * (0.5 + random.NextDouble())))
+            .SelectMany(s => new[] { new FlightStep(s.Controls, s.Duration), new FlightStep(new Controls(-s.Controls.ProperAcceleration, -s.Controls.AttitudeRate), s.Duration) })
+            .ToArray();
+        var ship = ShipState.AtRest(new FourVector(0, 0, 0, 0));
+        for (int i = 0; i < 1_000_000; i++) ship = FlightIntegrator.Advance(ship, steps[random.Next(steps.Length)]);
+
+        FourVector u = ship.Frame.ToHome(new FourVector(1, 0, 0, 0));
+        // Four-velocity normalisation u·u = −1 (definition of proper time), relative to γ².
+        Assert.True(Math.Abs(FourVector.Dot(u, u) + 1) <= 1e-12 * u.T * u.T, $"u·u = {FourVector.Dot(u, u):R} at γ = {u.T}");
+        Assert.True(ship.Velocity.Rapidity is > 0.05 and < 20, $"rapidity {ship.Velocity.Rapidity} (the walk should stay moderate)");
+        Assert.True(LorentzDefect(ship.Frame) <= 1e-12 * u.T * u.T, $"|ΛᵀηΛ − η| = {LorentzDefect(ship.Frame):R}");
+        Rotation q = ship.Frame.Orientation;
+        Assert.Equal(1, q.W * q.W + q.X * q.X + q.Y * q.Y + q.Z * q.Z, 14);
+        Assert.True(ship.Event.Value.IsFinite);
+    }
+
+    [Fact]
+    public void Constant_controls_give_the_same_flight_whatever_the_step()
+    {
+        // Exactness for constant controls: exp(τG) = exp(τG/n)ⁿ (one-parameter subgroup property).
+        var controls = new Controls(new Vec3(0.15, -0.1, 0.55), new Vec3(0.4, 0.1, -0.3));
+        var start = new ShipState(new CompensatedEvent(new FourVector(3, 1, 2, 3)), new LorentzFrame(new Velocity(1.5, new Vec3(0, 0.6, 0.8)), Rotation.FromAxisAngle(Vec3.UnitX, 0.4)), 0);
+        ShipState once = new FlightIntegrator(6).Step(start, controls);
+        var fine = new FlightIntegrator(6.0 / 1000);
+        ShipState many = start;
+        for (int i = 0; i < 1000; i++) many = fine.Step(many, controls);
+
+        double scale = once.Position.T;
+        Assert.True(Math.Abs(once.Position.T - many.Position.T) <= 1e-12 * scale, $"{once.Position} vs {many.Position}");
+        Assert.True((once.Position.Space - many.Position.Space).Length <= 1e-12 * scale, $"{once.Position} vs {many.Position}");
+        Assert.Equal(once.Velocity.Rapidity, many.Velocity.Rapidity, 12);
+        Assert.True((once.Frame.Orientation.Inverse * many.Frame.Orientation).Angle < 1e-12);
+        Assert.Equal(6, many.ShipTime, 13);
+    }
+
+    [Fact]
+    public void Round_trip_to_rapidity_25_returns_to_rest()
+    {
+        // Collinear rapidities add (Einstein 1905, §5, addition of velocities: tanh(φ₁ + φ₂) = (β₁ + β₂)/(1 + β₁β₂)): +25 then −25 is rest.
+        var integrator = new FlightIntegrator(0.025);
+        var ship = ShipState.AtRest(new FourVector(0, 0, 0, 0));
+        for (int i = 0; i < 1000; i++) ship = integrator.Step(ship, new Controls(Vec3.UnitZ, Vec3.Zero));
+        Assert.Equal(25, ship.Velocity.Rapidity, 10);
+        Assert.True(double.IsFinite(ship.Velocity.Gamma) && ship.Velocity.Gamma > 3.6e10);
+        for (int i = 0; i < 1000; i++) ship = integrator.Step(ship, new Controls(-Vec3.UnitZ, Vec3.Zero));
+        Assert.True(Math.Abs(ship.Velocity.Beta) < 1e-9, $"β = {ship.Velocity.Beta:R}");
+        // Time symmetry of the round trip: Δt = 2 sinh 25, Δz = 4 sinh²(12.5) with a = 1 (Rindler 2006, ch. 3, hyperbolic motion).
+        Assert.Equal(1, ship.Position.T / (2 * Math.Sinh(25)), 12);
+        Assert.Equal(1, ship.Position.Z / (4 * Math.Pow(Math.Sinh(12.5), 2)), 12);
+    }
+
+    [Fact]
+    public void Position_keeps_metre_precision_a_thousand_light_years_out()
+    {
+        // Knuth, TAOCP vol. 2, §4.2.2 (TwoSum is error-free): the compensated sum of many identical steps must
+        // equal n·d, which we form exactly as a double-double with a fused multiply-add (IEEE 754-2008 fma).
+        FourVector start = new(0, 1000 * Units.LightYear, -3 * Units.LightYear, 0.5);
+        var ship = new ShipState(new CompensatedEvent(start), new LorentzFrame(new Velocity(0.7, new Vec3(0.3, 0.4, 0.866)), Rotation.Identity), 0);
+        var integrator = new FlightIntegrator(1.2345678);
+        const int steps = 200_000;
+        for (int i = 0; i < steps; i++) ship = integrator.Step(ship, Controls.Coast);
+
+        FourVector d = new FlightIntegrator(1.2345678).Step(new ShipState(new CompensatedEvent(default), ship.Frame, 0), Controls.Coast).Position;
+        FourVector travelled = ship.Event.RelativeTo(start);
+        double n = steps;
+        foreach ((double actual, double step) in new[] { (travelled.T, d.T), (travelled.X, d.X), (travelled.Y, d.Y), (travelled.Z, d.Z) })
+        {
+            double high = n * step, low = Math.FusedMultiplyAdd(n, step, -high);
+            Assert.True(Math.Abs(actual - high - low) < Units.Metre, $"off by {(actual - high - low) / Units.Metre:G3} m");
+        }
+    }
+}
