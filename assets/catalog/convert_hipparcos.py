@@ -21,6 +21,7 @@ Stars are written in HIP order; the loader arranges them in sky cells.
 import gzip
 import json
 import math
+import os
 import struct
 import sys
 
@@ -55,8 +56,12 @@ def main(data_dir: str, output: str) -> None:
         named += struct.pack("<iB", int(key), len(encoded)) + encoded
         count += 1
 
-    with gzip.GzipFile(output, "wb", compresslevel=9, mtime=0) as out:
+    # Written beside the target and renamed into place, so a failed run never leaves half an asset.
+    temporary = output + ".partial"
+    # No file name and no time stamp in the gzip header: the same input always gives the same bytes.
+    with open(temporary, "wb") as raw, gzip.GzipFile("", "wb", 9, raw, mtime=0) as out:
         out.write(b"LWSTAR01" + struct.pack("<ii", len(features), count) + stars + named)
+    os.replace(temporary, output)
     print(f"{output}: {len(features)} stars, {count} names")
 
 

@@ -19,7 +19,8 @@ public sealed class FlightSound(SoundScene scene, ISoundBlockSink? frameLockedCa
 
     private readonly Dictionary<string, bool> _audible = [];
     private bool _budgetAlerted;
-    private double _samplesOwed;
+    private double _capturedSeconds;
+    private long _capturedFrames;
     private float[] _block = [];
 
     public void OnFrame(FlightSession session, CockpitView view, double loopSeconds)
@@ -57,10 +58,11 @@ public sealed class FlightSound(SoundScene scene, ISoundBlockSink? frameLockedCa
 
     private void CaptureFrame(double loopSeconds)
     {
-        _samplesOwed += loopSeconds * scene.SampleRate;
-        int frames = (int)Math.Floor(_samplesOwed);
+        // Round the running total, not each frame, so sample counts never drift from the loop clock.
+        _capturedSeconds += loopSeconds;
+        int frames = (int)(Math.Round(_capturedSeconds * scene.SampleRate) - _capturedFrames);
         if (frames <= 0) return;
-        _samplesOwed -= frames;
+        _capturedFrames += frames;
         int length = frames * scene.Channels;
         if (_block.Length < length) _block = new float[length];
         scene.Render(_block.AsSpan(0, length));

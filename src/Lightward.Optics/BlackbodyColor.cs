@@ -40,8 +40,9 @@ public static class BlackbodyColor
     /// <summary>Tristimulus values of a blackbody's light normalised to luminance Y = 1.</summary>
     public static CieXyz Chromaticity(double temperature)
     {
-        // Zero kelvin has no light; its limit is the colour of the cold tail, the long-wavelength end of the observer.
-        (CieXyz scaled, _) = ScaledTristimulus(temperature > 0 ? temperature : double.Epsilon);
+        // Zero kelvin has no light; its limit is the colour of the cold tail, the long-wavelength end of the observer,
+        // which any temperature far below 1 K already shows exactly (1e-300 K keeps c₂/(λT) finite).
+        (CieXyz scaled, _) = ScaledTristimulus(Math.Max(temperature, 1e-300));
         return new CieXyz(scaled.X / scaled.Y, 1, scaled.Z / scaled.Y);
     }
 
@@ -69,15 +70,13 @@ public static class BlackbodyColor
     /// </summary>
     private static (CieXyz Scaled, double LogScale) ScaledTristimulus(double temperature)
     {
-        double lastWavelength = CieObserver.WavelengthNm(CieObserver.Count - 1) * NanometreInMetres;
-        double referenceExponent = SecondRadiationConstant / (lastWavelength * temperature);
+        double inverseTemperature = 1 / temperature;
+        double referenceExponent = ExponentPerKelvin[^1] * inverseTemperature;
         double x = 0, y = 0, z = 0;
         for (int i = 0; i < CieObserver.Count; i++)
         {
-            double wavelength = CieObserver.WavelengthNm(i) * NanometreInMetres;
-            double exponent = SecondRadiationConstant / (wavelength * temperature);
-            double radiance = FirstRadiationConstant / Math.Pow(wavelength, 5)
-                * Math.Exp(referenceExponent - exponent) / OneMinusExpNegative(exponent);
+            double exponent = ExponentPerKelvin[i] * inverseTemperature;
+            double radiance = RadiancePrefactor[i] * Math.Exp(referenceExponent - exponent) / OneMinusExpNegative(exponent);
             x += radiance * CieObserver.Xbar(i);
             y += radiance * CieObserver.Ybar(i);
             z += radiance * CieObserver.Zbar(i);
@@ -85,6 +84,12 @@ public static class BlackbodyColor
         double step = CieObserver.StepNm * NanometreInMetres;
         return (new CieXyz(x * step, y * step, z * step), -referenceExponent);
     }
+
+    // Per tabulated wavelength: c₂/λ (Planck's exponent times T) and 2hc²/λ⁵.
+    private static readonly double[] ExponentPerKelvin = Enumerable.Range(0, CieObserver.Count)
+        .Select(i => SecondRadiationConstant / (CieObserver.WavelengthNm(i) * NanometreInMetres)).ToArray();
+    private static readonly double[] RadiancePrefactor = Enumerable.Range(0, CieObserver.Count)
+        .Select(i => FirstRadiationConstant / Math.Pow(CieObserver.WavelengthNm(i) * NanometreInMetres, 5)).ToArray();
 
     /// <summary>1 − e^(−x) without cancellation for small x (the hot, Rayleigh–Jeans end).</summary>
     private static double OneMinusExpNegative(double x) =>

@@ -66,17 +66,18 @@ public sealed class CosmicBackgroundPainter
     {
         // Any direction at apparent angle θ′ from the motion gives the same D; build one in the plane of n and a perpendicular.
         Vec3 n = velocity.Direction, across = n.AnyPerpendicular();
-        LinearSrgb ahead = CosmicBackground.Radiance(Doppler.FactorFromApparent(n, velocity));
-        if (!(ahead.Luminance * referenceSolidAngle > InvisibleLevel)) return false;
+        CosmicBackground.Radiance((float)Math.Log(Doppler.FactorFromApparent(n, velocity)), out float r, out float g, out float b);
+        if (!(ColorWeights.Red * r + ColorWeights.Green * g + ColorWeights.Blue * b > InvisibleLevel / referenceSolidAngle)) return false;
+        float solidAngle = (float)referenceSolidAngle;
         for (int i = 0; i < TableLength; i++)
         {
             double s = BitConverter.Int32BitsToSingle((BaseBin + i) << BinShift | 1 << (BinShift - 1));
             double halfAngle = Math.Asin(Math.Sqrt(Math.Min(s, 1)));
             Vec3 direction = Math.Cos(2 * halfAngle) * n + Math.Sin(2 * halfAngle) * across;
-            LinearSrgb radiance = CosmicBackground.Radiance(Doppler.FactorFromApparent(direction, velocity));
-            _red[i] = (float)(radiance.R * referenceSolidAngle);
-            _green[i] = (float)(radiance.G * referenceSolidAngle);
-            _blue[i] = (float)(radiance.B * referenceSolidAngle);
+            CosmicBackground.Radiance((float)Math.Log(Doppler.FactorFromApparent(direction, velocity)), out r, out g, out b);
+            _red[i] = r * solidAngle;
+            _green[i] = g * solidAngle;
+            _blue[i] = b * solidAngle;
         }
         return true;
     }

@@ -70,4 +70,18 @@ public class FlyCommandTests
         Assert.Equal(3.0 / 60, state.RootElement.GetProperty("ship_time_s").GetDouble(), 1e-12);
         Directory.Delete(folder, recursive: true);
     }
+
+    [Fact]
+    public void Headless_flight_records_its_sound_frame_locked()
+    {
+        string folder = Directory.CreateTempSubdirectory("lightward-fly-").FullName;
+        var result = CliRunner.RunIn(folder, "fly", "--headless", "--frames", "31", "--size", "160x90", "--wav", "flight.wav");
+        Assert.True(result.ExitCode == 0, result.Stderr);
+        byte[] wav = File.ReadAllBytes(Path.Combine(folder, "flight.wav"));
+        Assert.Equal("RIFF", System.Text.Encoding.ASCII.GetString(wav, 0, 4));
+        // 30 frame intervals at the fixed 60 fps clock = 0.5 s; 16-bit stereo at 48 kHz = 4 bytes per sample frame.
+        int dataChunk = wav.AsSpan().IndexOf("data"u8);
+        Assert.Equal(24_000 * 4, BitConverter.ToInt32(wav, dataChunk + 4));
+        Directory.Delete(folder, recursive: true);
+    }
 }

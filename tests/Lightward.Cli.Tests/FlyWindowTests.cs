@@ -10,7 +10,7 @@ using Lightward.Rendering.Instruments;
 
 namespace Lightward.Cli.Tests;
 
-public partial class FlyWindowTests
+public class FlyWindowTests
 {
     [FlyWindowFact]
     public void Fly_opens_a_window_obeys_keys_and_screenshots_the_stars()
@@ -86,7 +86,7 @@ public partial class FlyWindowTests
         }
     }
 
-    [DllImport("libc", EntryPoint = "setenv", StringMarshalling = StringMarshalling.Utf8)]
+    [DllImport("libc", EntryPoint = "setenv")]
     private static extern int SetNativeEnvironment(string name, string value, int overwrite);
 
     /// <summary>Bright points outside the instrument panels (left column, lower-right diagram).</summary>

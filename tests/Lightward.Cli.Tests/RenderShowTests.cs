@@ -7,10 +7,10 @@ public class RenderShowTests : IDisposable
 {
     private readonly string _folder = Directory.CreateTempSubdirectory("lightward-render-show-").FullName;
 
-    // A tiny invented show: three seconds with a fade, a turn and a caption, so that neighbouring frames differ.
+    // A tiny invented show: a second and a half with a fade, a turn and a caption, so that neighbouring frames differ.
     private const string TinyShow = """
         title = "Tiny"
-        length = "3 s"
+        length = "1.5 s"
         [cautions]
         max_rotation_rate = "60 deg/s"
         [[cue]]
@@ -23,8 +23,8 @@ public class RenderShowTests : IDisposable
         time_compression = 1e6
         caption = "Tiny"
         [[cue]]
-        at = "1 s"
-        transition = "2 s"
+        at = "0.5 s"
+        transition = "1 s"
         rapidity = 1.5
         look = { azimuth = "90 deg" }
         """;
@@ -58,8 +58,8 @@ public class RenderShowTests : IDisposable
         var single = CliRunner.Run(Render(show, whole));
         Assert.True(single.ExitCode == 0, single.Stderr);
         Assert.True(File.Exists(Path.Combine(whole, "frames", "tiny_000001.png")));
-        Assert.True(File.Exists(Path.Combine(whole, "frames", "tiny_000072.png")));
-        Assert.False(File.Exists(Path.Combine(whole, "frames", "tiny_000073.png")));
+        Assert.True(File.Exists(Path.Combine(whole, "frames", "tiny_000036.png")));
+        Assert.False(File.Exists(Path.Combine(whole, "frames", "tiny_000037.png")));
         Assert.True(File.Exists(Path.Combine(whole, "soundtrack", "tiny.wav")));
         Assert.True(File.Exists(Path.Combine(whole, "extras", "tiny.show.toml")));
         Assert.Contains("photosensitivity (ITU-R BT.1702", File.ReadAllText(Path.Combine(whole, "extras", "tiny.cautions.txt")));
@@ -87,7 +87,7 @@ public class RenderShowTests : IDisposable
             string frames = Path.Combine(resumed, "frames");
             var clock = Stopwatch.StartNew();
             while (!process.HasExited && clock.Elapsed < TimeSpan.FromMinutes(2)
-                   && (!Directory.Exists(frames) || Directory.GetFiles(frames, "*.png").Length < 10))
+                   && (!Directory.Exists(frames) || Directory.GetFiles(frames, "*.png").Length < 6))
                 Thread.Sleep(20);
             if (!process.HasExited) process.Kill(entireProcessTree: true);
             process.WaitForExit();

@@ -66,8 +66,11 @@ public class ColorTests
     }
 
     [Fact]
-    public void Every_temperature_from_1_K_to_1e15_K_gives_finite_colour()
+    public void Every_temperature_from_0_K_to_1e15_K_gives_finite_colour()
     {
+        LinearSrgb absoluteZero = BlackbodyColor.ColorOfUnitLuminance(0);
+        Assert.Equal(double.NegativeInfinity, BlackbodyColor.LogLuminance(0));
+        Assert.True(absoluteZero.R > 0 && double.IsFinite(absoluteZero.R + absoluteZero.G + absoluteZero.B));
         for (double logT = 0; logT <= 15 * Math.Log(10); logT += 0.05)
         {
             double temperature = Math.Exp(logT);

@@ -33,7 +33,7 @@ public sealed class ReplayTests : IDisposable
     [Fact]
     public void A_recorded_autopilot_flight_replays_bit_identically()
     {
-        Scenario scenario = Flights.Load("dock-tessaly.toml");
+        Scenario scenario = Flights.Load("twin-drill.toml");
         (Flight flown, string log) = Record(scenario, new Autopilot());
         FlightLog read = FlightLog.Read(log);
         Assert.Equal(flown.StateHash(), Drill.Replay(read, Drill.ScenarioFor(read)).StateHash());

@@ -151,7 +151,7 @@ internal static class PlanFormat
             < 3600 => Text($"{seconds:G4} s"),
             < 2 * Units.Day => Text($"{seconds / 3600:G4} h"),
             < Units.JulianYear => Text($"{seconds / Units.Day:G4} d"),
-            _ => Text($"{seconds / Units.JulianYear:G5} yr"),
+            _ => $"{Readable(seconds / Units.JulianYear)} yr",
         };
     }
 
@@ -163,7 +163,7 @@ internal static class PlanFormat
             0 => "0",
             < 0.01 * au => Text($"{lightSeconds / Units.Kilometre:G4} km"),
             < 0.01 * Units.LightYear => Text($"{lightSeconds / au:G4} au"),
-            _ => Text($"{lightSeconds / Units.LightYear:G5} ly"),
+            _ => $"{Readable(lightSeconds / Units.LightYear)} ly",
         };
     }
 
@@ -171,15 +171,19 @@ internal static class PlanFormat
     public static string Speed(double rapidity)
     {
         double oneMinusBeta = Math.Exp(-rapidity) / Math.Cosh(rapidity);
-        return oneMinusBeta < 1e-4 ? Text($"(1 − {oneMinusBeta:G3}) c") : Text($"{Math.Tanh(rapidity):G5} c");
+        return oneMinusBeta < 1e-4 ? Text($"(1 − {oneMinusBeta:0.##e+0}) c") : Text($"{Math.Tanh(rapidity):G5} c");
     }
 
-    public static string Gamma(double rapidity) => Text($"{Math.Cosh(rapidity):G5}");
+    public static string Gamma(double rapidity) => Readable(Math.Cosh(rapidity));
+
+    /// <summary>Five significant digits; large values with thousands separators rather than an exponent.</summary>
+    private static string Readable(double value) =>
+        Math.Abs(value) is >= 1e5 and < 1e15 ? Text($"{value:N0}") : Text($"{value:G5}").Replace("E+", "e+").Replace("E-", "e-");
 
     public static string MassRatio(double logMassRatio)
     {
         double ratio = Math.Exp(logMassRatio);
-        return double.IsFinite(ratio) ? Text($"{ratio:G4}") : Text($"10^{logMassRatio / Math.Log(10):G5}");
+        return double.IsFinite(ratio) ? Readable(ratio) : $"10^{Readable(logMassRatio / Math.Log(10))}";
     }
 
     private static string Text(FormattableString text) => text.ToString(CultureInfo.InvariantCulture);

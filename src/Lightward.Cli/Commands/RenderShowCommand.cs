@@ -83,7 +83,7 @@ public sealed class RenderShowCommand : Command<RenderShowCommand.Settings>
         ShowScript script = ShowScriptReader.Load(settings.Show);
         ShowRenderSettings renderSettings = RenderSettingsFrom(settings);
         string output = CheckOutputFolder(settings.Out!);
-        var job = new ShowRenderJob(script, new Scene(StarCatalog.LoadHipparcos()), renderSettings, output, settings.Frames, settings.Shard);
+        var job = new ShowRenderJob(script, renderSettings, output, settings.Frames, settings.Shard);
 
         job.PrepareFolder();
         foreach (string file in job.WriteSoundtrackIfMissing()) Console.WriteLine($"soundtrack: {file}");
@@ -120,6 +120,7 @@ public sealed class RenderShowCommand : Command<RenderShowCommand.Settings>
     private static void RenderWithProgress(ShowRenderJob job, IReadOnlyList<int> pending, CancellationToken cancellationToken)
     {
         if (pending.Count == 0) return;
+        var scene = new Scene(StarCatalog.LoadHipparcos());
         var clock = Stopwatch.StartNew();
         AnsiConsole.Progress()
             .AutoClear(false)
@@ -128,7 +129,7 @@ public sealed class RenderShowCommand : Command<RenderShowCommand.Settings>
             {
                 ProgressTask task = progress.AddTask("rendering", maxValue: pending.Count);
                 int done = 0;
-                job.RenderFrames(pending, _ =>
+                job.RenderFrames(scene, pending, _ =>
                 {
                     int count = Interlocked.Increment(ref done);
                     double rate = count / Math.Max(1e-9, clock.Elapsed.TotalSeconds);

@@ -2,7 +2,6 @@ using System.ComponentModel;
 using Lightward.Scenarios.Files;
 using Lightward.Scenarios.Flights;
 using Lightward.Scenarios.Model;
-using Spectre.Console;
 using Spectre.Console.Cli;
 
 namespace Lightward.Cli.Commands;
@@ -42,7 +41,8 @@ public sealed class ReplayCommand : Command<ReplaySettings>
         }
         if (log.FinalStateHash == report.StateHash)
         {
-            if (!settings.Json) AnsiConsole.MarkupLineInterpolated($"{state} [green](equal to the recorded one)[/]");
+            // Plain text: a hash must never be wrapped or styled.
+            if (!settings.Json) Console.WriteLine($"{state} (equal to the recorded one)");
             return ErrorReporting.Success;
         }
         Console.Error.WriteLine($"lightward: internal error (please report): replay diverged: {state}, recorded {log.FinalStateHash}");

@@ -1,6 +1,9 @@
 using System.ComponentModel;
 using System.Globalization;
+using Lightward.Host.Simulation;
 using Lightward.Optics;
+using Lightward.Scenarios.Files;
+using Lightward.Scenarios.Model;
 using Lightward.Spacetime;
 using Spectre.Console.Cli;
 
@@ -13,6 +16,10 @@ namespace Lightward.Cli.Commands;
 /// </summary>
 public class ViewSettings : CommandSettings
 {
+    [CommandArgument(0, "[scenario]")]
+    [Description("Scenario file (TOML) whose ship and sky to show; without one, a ship coasting from the home origin (see --heading, --beta).")]
+    public string? ScenarioPath { get; init; }
+
     [CommandOption("--beta <SPEED>")]
     [Description("Speed along the heading as a fraction of c (0.9) or with a unit (0.9 c, 30000 km/s); negative flies tail first. Excludes --rapidity.")]
     public string? Beta { get; init; }
@@ -26,7 +33,7 @@ public class ViewSettings : CommandSettings
     public string? Heading { get; init; }
 
     [CommandOption("--at <SHIP_TIME>")]
-    [Description("Ship clock reading of the view, with a unit (0 s, 3 d, 2 yr); the ship coasts from the home origin. Default 0 s.")]
+    [Description("Ship clock reading of the view, with a unit (0 s, 3 d, 2 yr); the ship coasts from its start until then. Default 0 s.")]
     public string? At { get; init; }
 
     [CommandOption("--sky <SKY>")]
@@ -48,12 +55,27 @@ public class ViewSettings : CommandSettings
     {
         if (Beta is not null && Rapidity is not null)
             throw new UserInputException("--beta and --rapidity both give the speed; use one of them");
-        double rapidity = Rapidity is not null ? ParseRapidity(Rapidity) : Beta is not null ? ParseBeta(Beta) : 0;
         double shipTime = At is null ? 0 : Quantity.Parse(At, Dimension.Time, "--at");
         if (shipTime < 0) throw new UserInputException($"--at: '{At}' is before the start; give a ship time of 0 s or later");
+        if (ScenarioPath is not null) return FromScenario(shipTime);
+        double rapidity = Rapidity is not null ? ParseRapidity(Rapidity) : Beta is not null ? ParseBeta(Beta) : 0;
         StarCatalog sky = LoadSky();
         Vec3 heading = ResolveHeading(Heading ?? "0,0", sky);
         return new ViewState(sky, ViewState.CoastingShip(heading, rapidity, shipTime));
+    }
+
+    /// <summary>The scenario's ship start and sky; the ship coasts (engine off) for <paramref name="shipTime"/>.</summary>
+    private ViewState FromScenario(double shipTime)
+    {
+        string? conflicting = new[] { ("--beta", Beta), ("--rapidity", Rapidity), ("--heading", Heading), ("--sky", Sky), ("--stars", Stars), ("--seed", Seed) }
+            .FirstOrDefault(flag => flag.Item2 is not null).Item1;
+        if (conflicting is not null)
+            throw new UserInputException($"{conflicting}: a scenario brings its own ship and sky; leave out {conflicting} or the scenario file");
+        Scenario scenario = ScenarioFile.Load(ScenarioPath!);
+        ShipState ship = scenario.Ship.State;
+        // One exact coasting step: FlightStep integrates constant controls exactly whatever the duration.
+        if (shipTime > 0) ship = new FlightIntegrator(shipTime).Step(ship, Controls.Coast);
+        return new ViewState(ScenarioSetup.SceneOf(scenario).Sky, ship);
     }
 
     private StarCatalog LoadSky()

@@ -3,11 +3,10 @@ using System.Diagnostics;
 namespace Lightward.Host.Shows;
 
 /// <summary>
-/// Writes delivery files under a temporary name tagged with this machine and process, then renames them into place,
-/// like <see cref="Lightward.Scenarios.Files.UserFiles.WriteAtomically"/> but with the machine in the name, because shards on
-/// several cluster nodes share one folder and must tell their own leftovers from a live neighbour's;
-/// so a killed render never leaves a half-written file under a final name. A later run removes the leftovers of
-/// processes that are gone; runs on other machines sharing the folder keep theirs.
+/// Writes delivery files under a temporary name, then renames them into place, so a killed render never leaves a
+/// half-written file under a final name. Unlike <see cref="Lightward.Scenarios.Files.UserFiles.WriteAtomically"/> the
+/// temporary name carries the machine as well as the process, because shards on several cluster nodes share one
+/// folder: a later run removes only the leftovers of its own machine's processes that are gone.
 /// </summary>
 public static class AtomicFile
 {

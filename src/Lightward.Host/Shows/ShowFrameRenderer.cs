@@ -40,15 +40,21 @@ public sealed class ShowFrameRenderer : IDisposable
     /// <summary>Show time of frame <paramref name="frame"/> (1-based): (frame − 1) / fps, as an exact fraction.</summary>
     public double TimeOf(int frame) => (double)(frame - 1) * _settings.FrameRate.Denominator / _settings.FrameRate.Numerator;
 
-    public void Render(int frame, RgbaImage image)
+    public void Render(int frame, RgbaImage image) => RenderAt(TimeOf(frame), image);
+
+    /// <summary>The picture at any show time; <paramref name="manualLook"/> (camera → ship axes) replaces the cues' look when the operator flies the camera.</summary>
+    public ShowMoment RenderAt(double showTime, RgbaImage image, Rotation? manualLook = null)
     {
-        ShowMoment moment = _timeline.At(TimeOf(frame));
+        ShowMoment moment = _timeline.At(showTime);
+        if (manualLook is { } look) moment = moment with { Look = look };
         Camera camera = _settings.Camera.Kind == ProjectionKind.Perspective ? _settings.Camera with { FieldOfView = moment.FieldOfView } : _settings.Camera;
+        if (camera.Width != image.Width || camera.Height != image.Height) camera = camera with { Width = image.Width, Height = image.Height };
         _renderer.Render(_scene, new Observer(moment.Ship, moment.Look), camera, image);
         if (moment.InstrumentsOpacity > 0) DrawInstruments(moment, image);
         if (moment.CaptionOpacity > 0 && moment.Caption.Length > 0) DrawCaption(moment.Caption, moment.CaptionOpacity, image);
         if (moment.Fade < 1) Fade(moment.Fade, image);
         if (_settings.FlipHorizontal || _settings.FlipVertical) Flip(image, _settings.FlipHorizontal, _settings.FlipVertical);
+        return moment;
     }
 
     private void DrawInstruments(ShowMoment moment, RgbaImage image)

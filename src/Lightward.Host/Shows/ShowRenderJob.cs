@@ -22,13 +22,11 @@ public sealed class ShowRenderJob
     public const int AnalysisCells = 96;
 
     private readonly ShowTimeline _timeline;
-    private readonly Scene _scene;
     private readonly ShowRenderSettings _settings;
 
-    public ShowRenderJob(ShowScript script, Scene scene, ShowRenderSettings settings, string outputFolder, string? frames, string? shard)
+    public ShowRenderJob(ShowScript script, ShowRenderSettings settings, string outputFolder, string? frames, string? shard)
     {
         _timeline = new ShowTimeline(script);
-        _scene = scene;
         _settings = settings;
         FrameCount = (int)Math.Max(1, settings.FrameRate.FramesIn(script.Length));
         Layout = new DeliveryLayout(outputFolder, script.DeliveryName, FrameCount);
@@ -89,10 +87,10 @@ public sealed class ShowRenderJob
     /// Renders the pending frames in order, encoding each PNG while the next frame renders. <paramref name="frameDone"/>
     /// is called after each frame is in place.
     /// </summary>
-    public void RenderFrames(IReadOnlyList<int> frames, Action<int> frameDone, CancellationToken cancellationToken)
+    public void RenderFrames(Scene scene, IReadOnlyList<int> frames, Action<int> frameDone, CancellationToken cancellationToken)
     {
         if (frames.Count == 0) return;
-        using var renderer = new ShowFrameRenderer(_timeline, _scene, _settings);
+        using var renderer = new ShowFrameRenderer(_timeline, scene, _settings);
         Camera camera = _settings.Camera;
         RgbaImage[] images = [new RgbaImage(camera.Width, camera.Height), new RgbaImage(camera.Width, camera.Height)];
         Task writing = Task.CompletedTask;

@@ -69,16 +69,17 @@ public class TerrellPenroseTests
         var projection = new PerspectiveProjection(500, 500, 2 * Math.PI / 180);
         HdrFrame frame = NearFieldImages.Render(layer, projection, ship, NearFieldImages.LookingAlong(Vec3.UnitY));
 
-        double redArea = 0, greenArea = 0;
-        for (int i = 0; i < frame.Red.Length; i++) { redArea += frame.Red[i]; greenArea += frame.Green[i]; }
+        // Each face's area in pixels: its channel's sum over the value a fully covered pixel has (both faces are seen with
+        // the centre's Doppler factor to within 1e-4, and D·T sets different red and green levels).
+        BodyAppearance seen = layer.LastViews[0].Appearance!.Value;
+        var fullPixel = SurfaceShader.OfLuminance(NearFieldImages.Glow.Temperature, NearFieldImages.Glow.Luminance, projection.ReferencePixelSolidAngle).Shade(seen.Doppler);
+        double redArea = frame.Red.Sum() / fullPixel.X, greenArea = frame.Green.Sum() / fullPixel.Y;
         double trailingFraction = greenArea / (redArea + greenArea);
         // Terrell (1959), Phys. Rev. 116, 1041: a small object seen at closest approach appears rotated by θ with
         // sin θ = β. A cube turned by θ shows its front face with width cos θ and its trailing face with width sin θ
         // (both with the same height), so the trailing face takes β / (β + 1/γ) of the picture.
         double gammaInverse = Math.Sqrt(1 - beta * beta);
         Assert.Equal(beta / (beta + gammaInverse), trailingFraction, 0.01);
-
-        BodyAppearance seen = layer.LastViews[0].Appearance!.Value;
         Assert.Equal(Math.Asin(beta), seen.ApparentRotation, 1e-3);
     }
 }
