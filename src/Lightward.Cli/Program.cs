@@ -10,6 +10,7 @@ app.Configure(config =>
     config.SetExceptionHandler((exception, _) => ErrorReporting.Report(exception));
     config.AddCommand<VersionCommand>("version").WithDescription("Print the program version and data attributions.");
     config.AddCommand<RenderShowCommand>("render-show").WithDescription("Render a show script into a fulldome delivery folder: numbered PNG frames, soundtrack, extras and a cautions check.");
+    config.AddCommand<ShowCommand>("show").WithDescription("Run a show live: dome output window, operator console in the terminal (go, hold, back, manual control).");
     config.AddCommand<CheckCommand>("check").WithDescription("Validate scenarios, burn plans and shows: every problem as file:line:column: key: what is wrong (what is allowed).");
     config.AddCommand<DrillCommand>("drill").WithDescription("Fly a scenario headless with a burn plan or the autopilot and score it, or score a folder of flight logs.");
     config.AddCommand<ReplayCommand>("replay").WithDescription("Re-fly a flight log bit-identically and compare its final state hash with the recorded one.");

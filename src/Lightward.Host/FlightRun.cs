@@ -9,7 +9,7 @@ using Lightward.Spacetime;
 
 namespace Lightward.Host;
 
-/// <summary>Everything <c>lightward fly</c> was asked for, already validated.</summary>
+/// <summary>Everything <c>lightward fly</c> was asked for, already validated; <c>Layers</c> are the scene's bodies and grid.</summary>
 public sealed record FlightRunOptions(
     FlightSetup Setup,
     Scene Scene,
@@ -26,7 +26,8 @@ public sealed record FlightRunOptions(
     int Monitor = 0,
     string? ScreenshotPath = null,
     string? StatePath = null,
-    string? WavPath = null);
+    string? WavPath = null,
+    IReadOnlyList<IFrameLayer>? Layers = null);
 
 /// <summary>How a flight ended.</summary>
 public sealed record FlightOutcome(bool Windowed, long Frames, ShipState Ship, double Throttle, double RapiditySpent, string TaskStatus, string? ScreenshotPath);
@@ -63,7 +64,9 @@ public static class FlightRun
         RunLimits limits = windowed || options.Limits != RunLimits.Unlimited ? options.Limits : new RunLimits(Frames: DefaultHeadlessFrames);
 
         using var instruments = new InstrumentOverlay();
-        var renderer = new FrameComposer(new SkyRenderer(options.Scene, new FrameRenderer(), options.CockpitFieldOfView), instruments);
+        var frameRenderer = new FrameRenderer();
+        frameRenderer.Layers.AddRange(options.Layers ?? []);
+        var renderer = new FrameComposer(new SkyRenderer(options.Scene, frameRenderer, options.CockpitFieldOfView), instruments);
         using WavSoundWriter? wav = options.WavPath is null ? null : WavSoundWriter.CreateStereoCapture(options.WavPath, "--wav");
         var scene = new SoundScene();
         LiveSoundOutput? live = windowed ? LiveSoundOutput.Start(scene, say, wav) : null;

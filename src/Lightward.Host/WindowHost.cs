@@ -3,6 +3,7 @@ using System.Runtime.InteropServices;
 using System.Text;
 using Lightward.Host.Input;
 using Lightward.Host.Window;
+using Lightward.Spacetime;
 using Silk.NET.OpenGL;
 
 namespace Lightward.Host;
@@ -46,7 +47,7 @@ public sealed unsafe class WindowHost : IFrameHost
 
     /// <summary>
     /// Opens a window, or returns false with one line saying why (no display, GLFW missing, no OpenGL 3.3) so the
-    /// caller can fall back to a headless render.
+    /// caller can fall back to a headless render. A monitor number the display does not have is a user error.
     /// </summary>
     public static bool TryOpen(WindowOptions options, InputBindings bindings, out WindowHost? host, out string? problem)
     {
@@ -76,8 +77,7 @@ public sealed unsafe class WindowHost : IFrameHost
             if (options.Monitor < 0 || options.Monitor >= count)
             {
                 Glfw.Terminate();
-                problem = $"--monitor {options.Monitor}: this display has {count} monitor(s), numbered 0 to {count - 1}";
-                return false;
+                throw new UserInputException($"--monitor: there is no monitor {options.Monitor}; this display has {count}, numbered 0 to {count - 1}");
             }
             monitor = monitors[options.Monitor];
             Glfw.VideoMode* mode = Glfw.GetVideoMode(monitor);

@@ -20,6 +20,12 @@ public sealed class StarCatalog
     /// <summary>B−V given to stars whose colour the catalogue lacks: the Hipparcos median (our choice, see assets/catalog/README.md).</summary>
     public const double UnknownColorIndex = 0.61;
 
+    /// <summary>
+    /// Lowest star temperature accepted, kelvin: safely above the floor of <see cref="BlackbodyTable"/>, and already
+    /// invisible (about e⁻⁸⁰ of the Sun's visual surface brightness); the coolest Hipparcos colour gives about 1500 K.
+    /// </summary>
+    public const float CoolestTemperature = 300;
+
     private const string AssetMagic = "LWSTAR01";
 
     /// <summary>Credit line for the shipped star data (full text and licence in assets/catalog/README.md).</summary>
@@ -50,7 +56,7 @@ public sealed class StarCatalog
 
     /// <summary>
     /// A catalogue from parallel arrays (copied and rearranged into sky cells). Directions must be unit vectors,
-    /// magnitudes finite and temperatures at least 1000 K.
+    /// magnitudes finite and temperatures at least <see cref="CoolestTemperature"/>.
     /// </summary>
     public StarCatalog(float[] x, float[] y, float[] z, float[] magnitude, float[] temperature,
         int[]? hipparcosNumber = null, string?[]? names = null)
@@ -85,8 +91,8 @@ public sealed class StarCatalog
         LogLuminanceScale = new float[count];
         for (int i = 0; i < count; i++)
         {
-            if (!(Temperature[i] >= 1000) || !float.IsFinite(Magnitude[i]))
-                throw new ArgumentException($"star {i}: temperature must be at least 1000 K and the magnitude finite");
+            if (!(Temperature[i] >= CoolestTemperature) || !float.IsFinite(Magnitude[i]))
+                throw new ArgumentException($"star {i}: temperature must be at least {CoolestTemperature} K and the magnitude finite");
             LogTemperature[i] = MathF.Log(Temperature[i]);
             // Divide by the same table the transform reads, so a ship at rest reproduces 10^(−0.4 V) exactly.
             float logLuminance = BlackbodyTable.Shared.Sample(LogTemperature[i], out _, out _, out _);
@@ -211,10 +217,11 @@ public sealed class StarCatalog
     }
 
     /// <summary>
-    /// A reproducible synthetic sky of <paramref name="count"/> stars, uniform over the sphere. Magnitudes follow
-    /// log₁₀ N(&lt;V) = log₁₀ 5044 + 0.5 (V − 6) and colours follow the B−V quantiles below; both fitted by us to the
-    /// Hipparcos catalogue (ESA 1997, ESA SP-1200; assets/catalog), where N(&lt;6) = 5044 and the count rises by
-    /// 10^0.49…10^0.50 per magnitude from V = 1 to 8.
+    /// A reproducible synthetic sky of <paramref name="count"/> stars. Every law below was fitted by us to the Hipparcos
+    /// catalogue (ESA 1997, ESA SP-1200; the shipped asset): magnitudes follow log₁₀ N(&lt;V) = log₁₀ 5044 + 0.5 (V − 6)
+    /// (Hipparcos has N(&lt;6) = 5044 and gains 10^0.49…10^0.50 per magnitude from V = 1 to 8); colours follow the
+    /// catalogue's B−V quantiles; and stars crowd toward the Milky Way with density per unit |sin b| (b the Galactic
+    /// latitude) ∝ 0.72 + 0.78 e^(−|sin b|/0.35), as the V &lt; 9 stars do (1.4× the mean in the plane, 0.8× at the poles).
     /// </summary>
     public static StarCatalog Procedural(int count, int seed)
     {
@@ -225,18 +232,43 @@ public sealed class StarCatalog
         var magnitude = new float[count]; var temperature = new float[count];
         for (int i = 0; i < count; i++)
         {
-            double sinDeclination = 2 * random.NextDouble() - 1;
-            double rightAscension = 2 * Math.PI * random.NextDouble();
-            double cosDeclination = Math.Sqrt(1 - sinDeclination * sinDeclination);
-            x[i] = (float)(cosDeclination * Math.Cos(rightAscension));
-            y[i] = (float)(cosDeclination * Math.Sin(rightAscension));
-            z[i] = (float)sinDeclination;
+            Vec3 direction = GalacticToIcrs(RandomGalacticDirection(random));
+            x[i] = (float)direction.X;
+            y[i] = (float)direction.Y;
+            z[i] = (float)direction.Z;
             // Inverse of the cumulative count: N(<V)/N = 10^(0.5 (V − faintest)).
             magnitude[i] = (float)(faintest + 2 * Math.Log10(1 - random.NextDouble()));
             temperature[i] = (float)BlackbodyColor.TemperatureFromColorIndex(ColorIndexQuantile(random.NextDouble()));
         }
         return new StarCatalog(x, y, z, magnitude, temperature);
     }
+
+    private const double DiscWeight = 0.78, HaloWeight = 0.72, DiscScale = 0.35;
+
+    /// <summary>A unit vector in Galactic axes drawn from the latitude law of <see cref="Procedural"/>, longitude uniform.</summary>
+    private static Vec3 RandomGalacticDirection(Random random)
+    {
+        // The density is a mixture: a uniform part (weight 0.72) and an exponential in |sin b| truncated to [0, 1].
+        double discTruncation = 1 - Math.Exp(-1 / DiscScale);
+        double discMass = DiscWeight * DiscScale * discTruncation;
+        double sinLatitude = random.NextDouble() * (HaloWeight + discMass) < HaloWeight
+            ? random.NextDouble()
+            : -DiscScale * Math.Log(1 - random.NextDouble() * discTruncation);
+        if (random.NextDouble() < 0.5) sinLatitude = -sinLatitude;
+        double longitude = 2 * Math.PI * random.NextDouble();
+        double cosLatitude = Math.Sqrt(1 - sinLatitude * sinLatitude);
+        return new Vec3(cosLatitude * Math.Cos(longitude), cosLatitude * Math.Sin(longitude), sinLatitude);
+    }
+
+    /// <summary>
+    /// Galactic → ICRS axes: the transpose of the ICRS → Galactic matrix of The Hipparcos and Tycho Catalogues
+    /// (ESA 1997), Vol. 1, §1.5.3 (digits from memory; its rows are the Galactic centre, l = 90° and the north Galactic
+    /// pole at RA 192.85948°, Dec 27.12825°, which the tests check).
+    /// </summary>
+    public static Vec3 GalacticToIcrs(Vec3 galactic) => new(
+        -0.0548755604 * galactic.X + 0.4941094279 * galactic.Y - 0.8676661490 * galactic.Z,
+        -0.8734370902 * galactic.X - 0.4448296300 * galactic.Y - 0.1980763734 * galactic.Z,
+        -0.4838350155 * galactic.X + 0.7469822445 * galactic.Y + 0.4559837762 * galactic.Z);
 
     // B−V at cumulative fractions 0, 1, 5, 10, 25, 50, 75, 90, 95, 99, 100 % of the Hipparcos catalogue (our fit, see Procedural).
     private static ReadOnlySpan<double> ColorQuantileFractions => [0, 0.01, 0.05, 0.10, 0.25, 0.50, 0.75, 0.90, 0.95, 0.99, 1];

@@ -14,7 +14,7 @@ namespace Lightward.Rendering;
 /// s and looks it up. The table is indexed by the bits of s as a float — exponent and top mantissa bits, i.e.
 /// <see cref="BinsPerStop"/> bins per factor of two — so it resolves the narrow forward glow at high rapidity as
 /// finely as the broad sky behind. The CMB is invisible below rapidity ≈ 6 (D·T₀ far below visible temperatures);
-/// then the frame is simply cleared.
+/// then nothing is painted.
 /// </summary>
 public sealed class CosmicBackgroundPainter
 {
@@ -31,16 +31,20 @@ public sealed class CosmicBackgroundPainter
     private static readonly int TableLength = (BitConverter.SingleToInt32Bits(1f) >> BinShift) - BaseBin + 1;
 
     private readonly float[] _red = new float[TableLength], _green = new float[TableLength], _blue = new float[TableLength];
-    private readonly Action<int> _paintBand;
+    private readonly Action<int> _paintBand, _clearBand;
     private HdrFrame? _frame;
     private Projection? _projection;
     private Vector3 _motion;
 
-    public CosmicBackgroundPainter() => _paintBand = PaintBand;
+    public CosmicBackgroundPainter()
+    {
+        _paintBand = PaintBand;
+        _clearBand = band => _frame!.ClearRows(band * StarSplatter.BandHeight, Math.Min(_frame.Height, (band + 1) * StarSplatter.BandHeight));
+    }
 
     /// <summary>
-    /// Stage "background": writes every pixel of <paramref name="frame"/> (CMB radiance × reference pixel solid angle,
-    /// or zero). Returns false when the CMB is too faint to show and the frame was only cleared.
+    /// Stage "background": writes every pixel of <paramref name="frame"/> with CMB radiance × reference pixel solid
+    /// angle. Returns false, leaving the frame untouched, when the CMB is too faint to show at any exposure.
     /// </summary>
     public bool Paint(HdrFrame frame, Projection projection, LorentzFrame shipFrame, AxesTransform shipToCamera, ParallelOptions parallel)
     {
@@ -51,15 +55,19 @@ public sealed class CosmicBackgroundPainter
         Vec3 motion = shipToCamera.Apply(motionInShip);
         _motion = new Vector3((float)motion.X, (float)motion.Y, (float)motion.Z);
 
-        bool visible = Tabulate(velocity, projection.ReferencePixelSolidAngle);
-        if (!visible)
-        {
-            frame.ClearRows(0, frame.Height);
-            return false;
-        }
-        Parallel.For(0, (frame.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, parallel, _paintBand);
+        if (!Tabulate(velocity, projection.ReferencePixelSolidAngle)) return false;
+        Parallel.For(0, BandCount(frame), parallel, _paintBand);
         return true;
     }
+
+    /// <summary>Zeroes the whole frame, a band per task (a frame without background).</summary>
+    public void Clear(HdrFrame frame, ParallelOptions parallel)
+    {
+        _frame = frame;
+        Parallel.For(0, BandCount(frame), parallel, _clearBand);
+    }
+
+    private static int BandCount(HdrFrame frame) => (frame.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight;
 
     /// <summary>Fills the radiance table for this velocity; false when even the brightest entry (dead ahead) is invisible.</summary>
     private bool Tabulate(Velocity velocity, double referenceSolidAngle)

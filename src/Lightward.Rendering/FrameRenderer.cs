@@ -23,6 +23,8 @@ public sealed class FrameRenderer
     private Camera? _projectionCamera;
     private Projection? _projection;
     private bool _backgroundPainted;
+    /// <summary>True while the HDR buffer is known to be all zeros: new, or zeroed by the last tone map.</summary>
+    private bool _hdrIsZero;
 
     /// <param name="maxThreads">Threads to use; −1 for all cores. The image does not depend on it.</param>
     public FrameRenderer(int maxThreads = -1)
@@ -69,8 +71,13 @@ public sealed class FrameRenderer
     {
         if (image.Width != camera.Width || image.Height != camera.Height)
             throw new ArgumentException($"image is {image.Width}×{image.Height} but the camera is {camera.Width}×{camera.Height}", nameof(image));
-        if (_frame is null || _frame.Image != image || _frame.Hdr.Width != camera.Width || _frame.Hdr.Height != camera.Height)
-            _frame = new FrameContext(_frame?.Hdr.Width == camera.Width && _frame.Hdr.Height == camera.Height ? _frame.Hdr : new HdrFrame(camera.Width, camera.Height), image);
+        // Keep the HDR buffer while the size holds; a new output image only needs a new context around it.
+        bool sameSize = _frame is not null && _frame.Hdr.Width == camera.Width && _frame.Hdr.Height == camera.Height;
+        if (!sameSize || _frame!.Image != image)
+        {
+            _frame = new FrameContext(sameSize ? _frame!.Hdr : new HdrFrame(camera.Width, camera.Height), image);
+            _hdrIsZero |= !sameSize;
+        }
         if (_projectionCamera != camera)
         {
             _projection = camera.CreateProjection();
@@ -94,16 +101,17 @@ public sealed class FrameRenderer
     private void ProjectStars(FrameContext frame) =>
         _splatter.Project(_apparentStars, frame.ShipToCamera, frame.Projection, _parallel);
 
-    /// <summary>Background: the CMB per pixel from its Doppler factor (or a cleared frame when it cannot show).</summary>
+    /// <summary>
+    /// Background: the CMB per pixel from its Doppler factor. When it cannot show, the frame only needs clearing —
+    /// and usually not even that, since the tone map zeroes each pixel as it reads it.
+    /// </summary>
     private void PaintBackground(FrameContext frame)
     {
-        if (frame.Scene.ShowCosmicBackground)
-            _backgroundPainted = _background.Paint(frame.Hdr, frame.Projection, frame.Observer.Ship.Frame, frame.ShipToCamera, _parallel);
-        else
-        {
-            frame.Hdr.ClearRows(0, frame.Hdr.Height);
-            _backgroundPainted = false;
-        }
+        bool alreadyZero = _hdrIsZero;
+        _hdrIsZero = false; // stays false if this frame fails half way
+        _backgroundPainted = frame.Scene.ShowCosmicBackground
+            && _background.Paint(frame.Hdr, frame.Projection, frame.Observer.Ship.Frame, frame.ShipToCamera, _parallel);
+        if (!_backgroundPainted && !alreadyZero) _background.Clear(frame.Hdr, _parallel);
     }
 
     /// <summary>Exposure: the camera's manual setting, or metered from the stars and the background.</summary>
@@ -113,15 +121,18 @@ public sealed class FrameRenderer
     /// <summary>Stars: point-spread splats into the HDR frame, footprints sized by exposed flux.</summary>
     private void SplatStars(FrameContext frame) => _splatter.Splat(frame.Hdr, frame.ExposureScale, _parallel);
 
-    /// <summary>Tone map: HDR → tone curve → sRGB bytes, written straight into the output image.</summary>
-    private void ToneMap(FrameContext frame) =>
+    /// <summary>Tone map: HDR → tone curve → sRGB bytes, written straight into the output image; leaves the HDR buffer zeroed for the next frame.</summary>
+    private void ToneMap(FrameContext frame)
+    {
         Parallel.For(0, (frame.Hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, _parallel, _toneMapBand);
+        _hdrIsZero = true;
+    }
 
     private unsafe void ToneMapBand(int band)
     {
         FrameContext frame = _frame!;
         int firstRow = band * StarSplatter.BandHeight, endRow = Math.Min(frame.Hdr.Height, firstRow + StarSplatter.BandHeight);
         fixed (byte* pixels = frame.Image.Pixels)
-            ToneMapper.MapRows(frame.Hdr, frame.ExposureScale, (uint*)pixels, firstRow, endRow);
+            ToneMapper.MapAndClearRows(frame.Hdr, frame.ExposureScale, (uint*)pixels, firstRow, endRow);
     }
 }

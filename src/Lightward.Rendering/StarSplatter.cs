@@ -36,11 +36,13 @@ public sealed class StarSplatter
     private Projection? _projection;
     private AxesTransform _shipToCamera;
     private HdrFrame? _frame;
-    private readonly Action<int> _projectChunk, _splatBand;
+    private float _exposureScale;
+    private readonly Action<int> _projectChunk, _assignChunk, _splatBand;
 
     public StarSplatter()
     {
         _projectChunk = ProjectChunk;
+        _assignChunk = AssignFootprints;
         _splatBand = SplatBand;
     }
 
@@ -68,8 +70,9 @@ public sealed class StarSplatter
     public void Splat(HdrFrame frame, float exposureScale, ParallelOptions parallel)
     {
         _frame = frame;
+        _exposureScale = exposureScale;
         int bandCount = (frame.Height + BandHeight - 1) / BandHeight;
-        AssignFootprints(exposureScale, frame.Height);
+        Parallel.For(0, (_stars.Count + ChunkSize - 1) / ChunkSize, parallel, _assignChunk);
         BinByBand(bandCount, frame.Height);
         Parallel.For(0, bandCount, parallel, _splatBand);
     }
@@ -93,10 +96,13 @@ public sealed class StarSplatter
         _projection!.ProjectDirections(cameraX, cameraY, cameraZ, _x.AsSpan(start, count), _y.AsSpan(start, count), _radianceScale.AsSpan(start, count));
     }
 
-    private void AssignFootprints(float exposureScale, int height)
+    /// <summary>Hides stars off the image and picks each visible star's footprint from its exposed flux.</summary>
+    private void AssignFootprints(int chunk)
     {
         float[] red = _stars.R, green = _stars.G, blue = _stars.B;
-        for (int i = 0; i < _stars.Count; i++)
+        float exposureScale = _exposureScale;
+        int height = _frame!.Height, start = chunk * ChunkSize, end = Math.Min(_stars.Count, start + ChunkSize);
+        for (int i = start; i < end; i++)
         {
             float y = _y[i];
             if (float.IsNaN(_x[i]) || y < -Projection.StarMargin || y > height + Projection.StarMargin)

@@ -29,9 +29,10 @@ public sealed class FlightIntegrator
     {
         LorentzFrame frame = ship.Frame;
         FourVector displacement = frame.ToHome(step.Displacement);
+        (double properTime, double properTimeLow) = AddCompensated(ship.ProperTime, ship.ProperTimeLow, step.Duration);
+        if (step.Controls == Controls.Coast) return new ShipState(ship.Event.Add(displacement), frame, properTime, properTimeLow);
         (Velocity velocity, Rotation wigner) = frame.Velocity.Compose(frame.Orientation.Rotate(step.EndProperVelocity));
         Rotation orientation = (wigner * frame.Orientation * step.EndRotation).Normalized();
-        (double properTime, double properTimeLow) = AddCompensated(ship.ProperTime, ship.ProperTimeLow, step.Duration);
         return new ShipState(ship.Event.Add(displacement), new LorentzFrame(velocity, orientation), properTime, properTimeLow);
     }
 

@@ -37,8 +37,8 @@ public readonly record struct Rotation(double W, double X, double Y, double Z)
 
     public Rotation Normalized()
     {
-        double n = Math.Sqrt(W * W + X * X + Y * Y + Z * Z);
-        return new Rotation(W / n, X / n, Y / n, Z / n);
+        double inverseNorm = 1 / Math.Sqrt(W * W + X * X + Y * Y + Z * Z);
+        return new Rotation(W * inverseNorm, X * inverseNorm, Y * inverseNorm, Z * inverseNorm);
     }
 
     public Rotation Inverse => new(W, -X, -Y, -Z);

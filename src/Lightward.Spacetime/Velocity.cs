@@ -93,18 +93,24 @@ public readonly record struct Velocity
         double acrossSquared = across.LengthSquared;
         double w = Math.Sqrt(1 + acrossSquared);
         // The component along n is w·(cosh ψ, sinh ψ): boosting along n just adds ψ to φ.
-        double summedRapidity = Rapidity + Math.Asinh(alongV / w);
+        double sinhPsi = alongV / w;
+        double summedRapidity = Rapidity + Math.Asinh(sinhPsi);
+        // sinh(φ + ψ) by the addition theorem while both terms are non-negative (speeding up), which saves a call;
+        // when braking the terms could cancel, so the summed rapidity is used instead.
+        double summedSinh = sinhPsi >= 0
+            ? _sinh * Math.Sqrt(1 + sinhPsi * sinhPsi) + (1 + _coshMinusOne) * sinhPsi
+            : Math.Sinh(summedRapidity);
         Velocity result;
         if (acrossSquared == 0)
         {
-            // Collinear: the summed rapidity is the answer, exactly (no round trip through sinh and asinh).
-            result = summedRapidity >= 0 ? new Velocity(summedRapidity, n) : new Velocity(-summedRapidity, -n);
+            // Collinear: the summed rapidity is the answer, exactly (no round trip through asinh).
+            result = summedRapidity >= 0 ? new Velocity(summedRapidity, n, summedSinh) : new Velocity(-summedRapidity, -n, -summedSinh);
         }
         else
         {
-            double resultAlong = w * Math.Sinh(summedRapidity);
+            double resultAlong = w * summedSinh;
             double resultProperSpeed = Math.Sqrt(resultAlong * resultAlong + acrossSquared);
-            result = FromProperSpeed(resultProperSpeed, (resultAlong * n + across) / resultProperSpeed);
+            result = FromProperSpeed(resultProperSpeed, (1 / resultProperSpeed) * (resultAlong * n + across));
         }
 
         // Thomas–Wigner rotation: angle ε with tan(ε/2) = |u×v| / ((1+γu)(1+γv) + u·v), about the axis v×u.

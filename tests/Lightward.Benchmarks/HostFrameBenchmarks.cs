@@ -65,6 +65,8 @@ public class HostFrameBenchmarks
         public FrameTimeConfig()
         {
             AddColumn(StatisticColumn.Median, new PercentileColumn(99));
+            // The generated benchmark project can take minutes to build on a busy two-core machine.
+            WithBuildTimeout(TimeSpan.FromMinutes(10));
         }
     }
 

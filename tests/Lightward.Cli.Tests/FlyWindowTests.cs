@@ -53,6 +53,16 @@ public class FlyWindowTests
     }
 
     [FlyWindowFact]
+    public void A_monitor_the_display_does_not_have_is_a_user_error()
+    {
+        using var display = FlyDisplay.Start();
+        var result = CliRunner.RunWith(Directory.GetCurrentDirectory(), new Dictionary<string, string> { ["DISPLAY"] = display.Name },
+            "fly", "--monitor", "5", "--frames", "1");
+        Assert.Equal(2, result.ExitCode);
+        Assert.Contains("lightward: error: --monitor: there is no monitor 5; this display has 1, numbered 0 to 0", result.Stderr);
+    }
+
+    [FlyWindowFact]
     public void The_window_shows_exactly_the_frame_the_headless_host_keeps()
     {
         using var display = FlyDisplay.Start();

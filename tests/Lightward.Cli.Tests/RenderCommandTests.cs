@@ -76,4 +76,18 @@ public class RenderCommandTests
         Assert.Contains("--out", result.Stderr);
         Assert.DoesNotContain("   at ", result.Stderr);
     }
+
+    [Fact]
+    public void Renders_the_view_from_a_scenarios_ship_and_refuses_flags_that_would_replace_it()
+    {
+        string scenario = Path.Combine(CliRunner.RepositoryRoot, "scenarios", "free-flight.toml");
+        string output = Path.Combine(TempFolder(), "scenario.png");
+        var result = CliRunner.Run("render", scenario, "--at", "10 min", "--size", "160x90", "--out", output);
+        Assert.True(result.ExitCode == 0, result.Stderr);
+        Assert.True(File.Exists(output));
+
+        var conflict = CliRunner.Run("render", scenario, "--heading", "Vega", "--out", output);
+        Assert.Equal(2, conflict.ExitCode);
+        Assert.Contains("--heading", conflict.Stderr);
+    }
 }

@@ -122,6 +122,26 @@ public class FlightLoopTests
         Assert.True(Vec3.AngleBetween(session.Loop.Current.Forward, Vec3.UnitX) < 1e-6);
     }
 
+    [Fact]
+    public void Looking_around_turns_the_view_but_not_the_ship()
+    {
+        var session = new FlightSession(FlightSetup.Demo);
+        Rotation attitude = session.Loop.Current.Frame.Orientation;
+        var input = new PilotInput { LookYaw = Math.PI / 2, LookPitch = 0.2 };
+        session.Update(input, 1.0 / 60);
+
+        Assert.Equal(attitude, session.Loop.Current.Frame.Orientation);
+        // Yaw +90° about the ship's +Y takes the look direction from the nose (+Z) to the right wing (+X).
+        Vec3 look = session.Look.Rotate(Vec3.UnitZ);
+        Assert.True(look.X > 0.9, look.ToString());
+        Assert.True(look.Y > 0.15, look.ToString());
+
+        input.BeginFrame();
+        input.AddPress(PilotAction.LookReset);
+        session.Update(input, 1.0 / 60);
+        Assert.Equal(Rotation.Identity, session.Look);
+    }
+
     private static ShipState FlyFor(Controls controls, int compressionLevel, double loopSeconds)
     {
         var loop = new FlightLoop(ShipState.AtRest(default));

@@ -43,4 +43,21 @@ public class DeterminismTests
         Assert.Equal(first, oneThread);
         Assert.Contains(first, b => b > 40);
     }
+
+    [Fact]
+    public void A_frame_does_not_depend_on_the_frame_rendered_before_it()
+    {
+        // The renderer reuses its HDR buffer (zeroed by each tone map); a frame full of background glow must leave no trace.
+        var camera = new Camera(ProjectionKind.Perspective, 160, 100, 0.03 * Math.PI / 180, 0, Exposure.Auto);
+        var wide = camera with { FieldOfView = Math.PI / 2 };
+        var scene = new Scene(Sky);
+        Observer glowing = new(ShipState.AtRest(default) with { Frame = new LorentzFrame(new Velocity(12, Vec3.UnitZ), Rotation.Identity) }, Rotation.Identity);
+        Observer resting = new(ShipState.AtRest(default), Rotation.Identity);
+        var renderer = new FrameRenderer(2);
+        byte[] fresh = new FrameRenderer(2).Render(scene, resting, wide).Pixels;
+        var image = new RgbaImage(160, 100);
+        renderer.Render(scene, glowing, camera, image);
+        renderer.Render(scene, resting, wide, image);
+        Assert.Equal(fresh, image.Pixels);
+    }
 }

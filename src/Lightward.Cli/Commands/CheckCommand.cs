@@ -1,6 +1,5 @@
 using System.ComponentModel;
 using Lightward.Scenarios.Files;
-using Spectre.Console;
 using Spectre.Console.Cli;
 
 namespace Lightward.Cli.Commands;
@@ -22,7 +21,8 @@ public sealed class CheckCommand : Command<CheckSettings>
         {
             (string kind, IReadOnlyList<FileProblem> found) = FileCheck.Check(file);
             foreach (FileProblem problem in found) Console.Error.WriteLine($"lightward: error: {problem}");
-            if (found.Count == 0) AnsiConsole.MarkupLineInterpolated($"{file}: [green]ok[/] ({kind})");
+            // Plain text, one line per file: paths must not be wrapped.
+            if (found.Count == 0) Console.WriteLine($"{file}: ok ({kind})");
             problems += found.Count;
         }
         if (problems == 0) return ErrorReporting.Success;

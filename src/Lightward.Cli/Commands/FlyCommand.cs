@@ -172,7 +172,8 @@ public sealed class FlyCommand : Command<FlySettings>
         var options = new FlightRunOptions(setup, scene, bindings, width, height, limits, view, fieldOfView,
             Instruments: !settings.NoInstruments, InstrumentsOnDome: settings.DomeInstruments, ForceHeadless: settings.Headless,
             Fullscreen: settings.Fullscreen || settings.Monitor is not null, Monitor: monitor,
-            ScreenshotPath: screenshot, StatePath: stateOut, WavPath: wav);
+            ScreenshotPath: screenshot, StatePath: stateOut, WavPath: wav,
+            Layers: scenario is null ? [] : [ViewNearField.FromScenario(scenario)]);
         FlightOutcome outcome = FlightRun.Execute(options, note => Console.Error.WriteLine($"lightward: {note}"));
         ShipState ship = outcome.Ship;
         Console.WriteLine(string.Create(CultureInfo.InvariantCulture,

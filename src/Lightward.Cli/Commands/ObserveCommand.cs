@@ -2,6 +2,8 @@ using System.ComponentModel;
 using System.Globalization;
 using System.Text.Json;
 using Lightward.Optics;
+using Lightward.Rendering.NearField;
+using Lightward.Scenarios.Files;
 using Lightward.Spacetime;
 using Spectre.Console;
 using Spectre.Console.Cli;
@@ -30,8 +32,13 @@ public sealed class ObserveCommand : Command<ObserveCommand.Settings>
         int? limit = ParseLimit(settings.Limit);
         ViewState view = settings.Resolve();
         List<Sighting> sightings = Observe(view, limit);
-        if (settings.Json) WriteJson(view.Ship, sightings);
-        else WriteTable(view.Ship, sightings);
+        IReadOnlyList<BodyView> bodies = settings.ScenarioPath is null ? [] : ViewNearField.FromScenario(ScenarioFile.Load(settings.ScenarioPath)).Look(view.Ship, Rotation.Identity);
+        if (settings.Json) WriteJson(view.Ship, sightings, bodies);
+        else
+        {
+            WriteTable(view.Ship, sightings);
+            if (bodies.Count > 0) WriteBodyTable(bodies);
+        }
         return 0;
     }
 
@@ -100,7 +107,59 @@ public sealed class ObserveCommand : Command<ObserveCommand.Settings>
     private static string FormatMagnitude(double magnitude) =>
         double.IsFinite(magnitude) ? magnitude.ToString("F2", CultureInfo.InvariantCulture) : "invisible";
 
-    private static void WriteJson(ShipState ship, List<Sighting> sightings)
+    /// <summary>Bodies as their light shows them now (see <see cref="BodyAppearance"/>); directions in ship axes.</summary>
+    private static void WriteBodyTable(IReadOnlyList<BodyView> bodies)
+    {
+        var table = new Table().Border(TableBorder.Rounded);
+        table.AddColumns("body", "azimuth, elevation seen (°)", "Doppler D", "distance (light path)", "angular size (°)", "turned by (°)", "clock shows");
+        foreach (BodyView body in bodies)
+        {
+            if (body.Appearance is not { } seen)
+            {
+                table.AddRow(Markup.Escape(body.Body.Name), "no light has arrived yet", "", "", "", "", "");
+                continue;
+            }
+            (double azimuth, double elevation) = ShipAngles(seen.Direction);
+            table.AddRow(
+                Markup.Escape(body.Body.Name),
+                FormattableString.Invariant($"{azimuth:F3}, {elevation:+0.000;-0.000}"),
+                FormattableString.Invariant($"{seen.Doppler:G5}"),
+                Rendering.Instruments.Readout.Distance(seen.Distance),
+                FormattableString.Invariant($"{seen.AngularDiameter * 180 / Math.PI:G4}"),
+                FormattableString.Invariant($"{seen.ApparentRotation * 180 / Math.PI:F2}"),
+                body.Body.CarriesClock ? Rendering.Instruments.Readout.Clock(seen.ClockReading) : "");
+        }
+        AnsiConsole.Write(table);
+    }
+
+    private static void WriteBodiesJson(Utf8JsonWriter json, IReadOnlyList<BodyView> bodies)
+    {
+        json.WriteStartArray("bodies");
+        foreach (BodyView body in bodies)
+        {
+            json.WriteStartObject();
+            json.WriteString("name", body.Body.Name);
+            json.WriteString("kind", "body");
+            json.WriteBoolean("seen", body.Appearance is not null);
+            if (body.Appearance is { } seen)
+            {
+                (double azimuth, double elevation) = ShipAngles(seen.Direction);
+                WriteVector(json, "apparent_dir", seen.Direction);
+                json.WriteNumber("azimuth_deg", azimuth);
+                json.WriteNumber("elevation_deg", elevation);
+                json.WriteNumber("doppler", seen.Doppler);
+                json.WriteNumber("light_path_ls", seen.Distance);
+                json.WriteNumber("angular_diameter_deg", seen.AngularDiameter * 180 / Math.PI);
+                json.WriteNumber("apparent_rotation_deg", seen.ApparentRotation * 180 / Math.PI);
+                if (body.Body.CarriesClock) json.WriteNumber("clock_s", seen.ClockReading);
+                else json.WriteNull("clock_s");
+            }
+            json.WriteEndObject();
+        }
+        json.WriteEndArray();
+    }
+
+    private static void WriteJson(ShipState ship, List<Sighting> sightings, IReadOnlyList<BodyView> bodies)
     {
         using Stream stdout = Console.OpenStandardOutput();
         using var json = new Utf8JsonWriter(stdout, new JsonWriterOptions { Indented = true });
@@ -139,6 +198,7 @@ public sealed class ObserveCommand : Command<ObserveCommand.Settings>
             json.WriteEndObject();
         }
         json.WriteEndArray();
+        WriteBodiesJson(json, bodies);
         json.WriteEndObject();
         json.Flush();
         stdout.Write("\n"u8);

@@ -1,6 +1,8 @@
 using System.ComponentModel;
 using System.Globalization;
 using Lightward.Rendering;
+using Lightward.Rendering.NearField;
+using Lightward.Scenarios.Files;
 using Lightward.Spacetime;
 using Spectre.Console.Cli;
 
@@ -43,6 +45,10 @@ public sealed class RenderCommand : Command<RenderCommand.Settings>
         [Description("Threads to render with (the image is the same for any count). Default: all cores.")]
         public string? Threads { get; init; }
 
+        [CommandOption("--grid <SPACING>")]
+        [Description("Without a scenario: draw the grid of space at rest in the home frame, lines this far apart (e.g. 2 ls), out to ten spacings. A scenario brings its own grid.")]
+        public string? Grid { get; init; }
+
         [CommandOption("--out <FILE>")]
         [Description("PNG file to write (written to a temporary name, then renamed). Default frame.png.")]
         public string? Out { get; init; }
@@ -51,17 +57,37 @@ public sealed class RenderCommand : Command<RenderCommand.Settings>
     public override int Execute(CommandContext context, Settings settings, CancellationToken cancellationToken)
     {
         Camera camera = ViewCamera.FromFlags(settings.Projection, settings.Size, settings.FieldOfView, settings.Tilt, settings.Exposure);
-        Rotation look = ViewCamera.ParseLook(settings.Look);
         int threads = settings.Threads is null ? -1 : ParseThreads(settings.Threads);
         string output = ViewOutput.CheckWritable(settings.Out ?? "frame.png", "--out");
         ViewState view = settings.Resolve();
+        NearFieldLayer? nearField = NearFieldOf(settings);
+        Rotation look = nearField?.LookAt(settings.Look, view.Ship) ?? ViewCamera.ParseLook(settings.Look);
 
         var renderer = new FrameRenderer(threads);
+        if (nearField is not null)
+        {
+            renderer.Layers.Add(nearField);
+            renderer.Overlays.Add(new ClockMarkers(nearField));
+        }
         RgbaImage image = renderer.Render(new Scene(view.Sky, !settings.NoBackground), new Observer(view.Ship, look), camera);
         PngWriter.Write(image, output);
         Console.WriteLine(FormattableString.Invariant(
             $"wrote {output} ({camera.Width}x{camera.Height} {camera.Kind.ToString().ToLowerInvariant()}, rapidity {view.Ship.Velocity.Rapidity:G6}, exposure {renderer.LastExposureStops:F2} stops)"));
         return 0;
+    }
+
+    /// <summary>The scenario's bodies and grid, or a home-frame grid from --grid, or nothing.</summary>
+    private static NearFieldLayer? NearFieldOf(Settings settings)
+    {
+        if (settings.ScenarioPath is not null)
+        {
+            if (settings.Grid is not null) throw new UserInputException("--grid: a scenario brings its own grid (its [grid] section); leave out --grid");
+            return ViewNearField.FromScenario(ScenarioFile.Load(settings.ScenarioPath));
+        }
+        if (settings.Grid is null) return null;
+        double spacing = Quantity.Parse(settings.Grid, Dimension.Length, "--grid");
+        if (!(spacing > 0)) throw new UserInputException($"--grid: '{settings.Grid}' must be a positive length (e.g. 2 ls or 500000 km)");
+        return ViewNearField.HomeGrid(spacing);
     }
 
     private static int ParseThreads(string text)

@@ -1,6 +1,7 @@
 using Lightward.Audio;
 using Lightward.Rendering;
 using Lightward.Rendering.Instruments;
+using Lightward.Rendering.NearField;
 using Lightward.Scenarios.Shows;
 using Lightward.Spacetime;
 using SkiaSharp;
@@ -25,6 +26,7 @@ public sealed class ShowFrameRenderer : IDisposable
     private readonly ShowRenderSettings _settings;
     private readonly FrameRenderer _renderer;
     private readonly InstrumentOverlay _instruments = new();
+    private readonly NearFieldLayer _grid;
     private readonly SKTypeface _captionFace = BundledFonts.Load(BundledFonts.SansFileName);
     private readonly byte[] _fadeTable = new byte[256];
     private byte[] _beforeInstruments = [];
@@ -35,6 +37,8 @@ public sealed class ShowFrameRenderer : IDisposable
         _scene = scene;
         _settings = settings;
         _renderer = new FrameRenderer(settings.Threads);
+        // Ten spacings around the camera, the lattice at rest in the home frame the ship leaves.
+        _grid = new NearFieldLayer([], SpaceGrid.AtRestInHome(timeline.Script.GridSpacing, 10 * timeline.Script.GridSpacing));
     }
 
     /// <summary>Show time of frame <paramref name="frame"/> (1-based): (frame − 1) / fps, as an exact fraction.</summary>
@@ -49,6 +53,9 @@ public sealed class ShowFrameRenderer : IDisposable
         if (manualLook is { } look) moment = moment with { Look = look };
         Camera camera = _settings.Camera.Kind == ProjectionKind.Perspective ? _settings.Camera with { FieldOfView = moment.FieldOfView } : _settings.Camera;
         if (camera.Width != image.Width || camera.Height != image.Height) camera = camera with { Width = image.Width, Height = image.Height };
+        // An HDR layer cannot be blended after tone mapping, so the grid comes and goes at the middle of its transition.
+        _renderer.Layers.Clear();
+        if (moment.GridOpacity >= 0.5) _renderer.Layers.Add(_grid);
         _renderer.Render(_scene, new Observer(moment.Ship, moment.Look), camera, image);
         if (moment.InstrumentsOpacity > 0) DrawInstruments(moment, image);
         if (moment.CaptionOpacity > 0 && moment.Caption.Length > 0) DrawCaption(moment.Caption, moment.CaptionOpacity, image);
@@ -65,7 +72,7 @@ public sealed class ShowFrameRenderer : IDisposable
         double acceleration = _timeline.ProperAccelerationAt(moment.ShowTime);
         var controls = new Controls(new Vec3(0, 0, acceleration), Vec3.Zero);
         string compression = FormattableString.Invariant($"x{moment.TimeCompression:G3}");
-        var readings = FlightReadings.Of(moment.Ship, null, acceleration != 0 ? 1 : 0, controls, double.NaN, compression, false, "", "");
+        var readings = FlightReadings.Of(moment.Ship, null, acceleration != 0 ? 1 : 0, controls, Math.Abs(_timeline.RapidityToGo(moment.ShowTime)), compression, false, "", "");
         if (moment.InstrumentsOpacity >= 1)
         {
             _instruments.Draw(image.Pixels, image.Width, image.Height, readings, trace);

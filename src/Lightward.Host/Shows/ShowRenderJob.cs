@@ -173,6 +173,7 @@ public sealed class ShowRenderJob
         text.AppendLine($"exposure = \"{exposure}\"");
         text.AppendLine($"fps = \"{_settings.FrameRate}\"");
         text.AppendLine($"frames = {FrameCount}");
+        text.AppendLine($"grid_spacing = \"{(Script.GridSpacing / Units.LightYear).ToString("0.######", CultureInfo.InvariantCulture)} ly\"");
         text.AppendLine($"soundtrack = \"{(ShowSoundtrack.LayoutFor(Script) == SpeakerLayout.Stereo ? "stereo" : "5.1")}\"");
         text.AppendLine($"sample_rate = \"{SoundFormat.SampleRate} Hz\"");
         text.AppendLine($"bits_per_sample = {SoundtrackWriter.DefaultBitsPerSample}");

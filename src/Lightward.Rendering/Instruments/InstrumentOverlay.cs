@@ -10,7 +10,7 @@ namespace Lightward.Rendering.Instruments;
 /// </summary>
 public sealed class InstrumentOverlay : IDisposable
 {
-    private static readonly SKColor PanelShade = new(6, 10, 18, 170);
+    private static readonly SKColor PanelShade = new(6, 10, 18, 205);
     private static readonly SKColor LabelColour = new(120, 190, 200);
     private static readonly SKColor ValueColour = new(255, 206, 130);
     private static readonly SKColor AlertColour = new(255, 110, 90);
@@ -72,7 +72,12 @@ public sealed class InstrumentOverlay : IDisposable
         }
         if (r.TaskStatus.Length > 0) rows.Add(("task", r.TaskStatus, false));
 
-        float lineHeight = unit * 1.3f, labelWidth = unit * 8.6f, valueWidth = unit * 13f;
+        float lineHeight = unit * 1.3f, labelWidth = unit * 0.8f, valueWidth = 0;
+        foreach ((string label, string value, _) in rows)
+        {
+            labelWidth = Math.Max(labelWidth, font.MeasureText(label) + unit * 0.8f);
+            valueWidth = Math.Max(valueWidth, font.MeasureText(value));
+        }
         var panel = new SKRect(unit * 0.6f, unit * 0.6f, unit * 1.4f + labelWidth + valueWidth, unit * 1.2f + lineHeight * rows.Count);
         _fill.Color = PanelShade;
         canvas.DrawRoundRect(panel, unit * 0.4f, unit * 0.4f, _fill);

@@ -12,7 +12,7 @@ namespace Lightward.Rendering.NearField;
 /// How far the body appears turned (Terrell 1959): the angle between the direction the light left the body in its
 /// rest frame and the direction it arrives from in the ship's frame, rad.
 /// </param>
-/// <param name="ClockReading">The body's own clock at the emission of the centre's light, s.</param>
+/// <param name="ClockReading">The body's clock (proper time plus its offset) at the emission of the centre's light, s.</param>
 public readonly record struct BodyAppearance(Vec3 Direction, double Doppler, double Distance, double AngularDiameter, double ApparentRotation, double ClockReading);
 
 /// <summary>
@@ -79,7 +79,7 @@ public sealed class BodyImager
         foreach (PointSight s in _sights) radius = Math.Max(radius, Vec3.AngleBetween(s.Direction, middle.Direction));
         Vec3 restDirection = (-camera).NormalizedOr(Vec3.UnitZ);
         double rotation = Vec3.AngleBetween(restDirection, Optics.Aberration.Apparent(restDirection, _sight.ShipVelocityInFrame));
-        return new BodyAppearance(middle.Direction, middle.Doppler, middle.Distance, 2 * radius, rotation, clockAtCentre + middle.EmissionTime);
+        return new BodyAppearance(middle.Direction, middle.Doppler, middle.Distance, 2 * radius, rotation, clockAtCentre + Body.ClockOffset + middle.EmissionTime);
     }
 
     /// <summary>

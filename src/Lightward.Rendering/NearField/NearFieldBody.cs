@@ -29,6 +29,7 @@ public sealed record BodySurface(SurfaceKind Kind, double Temperature, double Lu
 
 /// <summary>
 /// A body of the near field: a mesh fixed in the body's own axes, carried rigidly along its worldline. When
-/// <see cref="CarriesClock"/> is set, the body shows its own clock (proper time) to the camera.
+/// <see cref="CarriesClock"/> is set, the body shows its own clock to the camera: the worldline's proper time plus
+/// <see cref="ClockOffset"/>.
 /// </summary>
-public sealed record NearFieldBody(string Name, TriangleMesh Mesh, IWorldline Worldline, BodySurface Surface, bool CarriesClock = false);
+public sealed record NearFieldBody(string Name, TriangleMesh Mesh, IWorldline Worldline, BodySurface Surface, bool CarriesClock = false, double ClockOffset = 0);

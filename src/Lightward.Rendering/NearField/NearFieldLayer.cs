@@ -45,6 +45,21 @@ public sealed class NearFieldLayer : IFrameLayer
         return _views;
     }
 
+    /// <summary>
+    /// The look rotation (look axes → ship axes) that centres the body named <paramref name="bodyName"/> where it appears
+    /// from <paramref name="ship"/>, or null when no body has that name or none of its light has arrived yet.
+    /// </summary>
+    public Rotation? LookAt(string? bodyName, ShipState ship)
+    {
+        int index = Array.FindIndex(_imagers, i => string.Equals(i.Body.Name, bodyName, StringComparison.OrdinalIgnoreCase));
+        if (index < 0 || _imagers[index].Look(ship, Rotation.Identity) is not { } seen) return null;
+        // Keep the ship's up as the view's up where the body is not straight above or below.
+        Vec3 forward = seen.Direction;
+        Vec3 right = Vec3.Cross(Vec3.UnitY, forward).NormalizedOr(forward.AnyPerpendicular());
+        Vec3 up = Vec3.Cross(forward, right);
+        return Rotation.FromMatrix(new[,] { { right.X, up.X, forward.X }, { right.Y, up.Y, forward.Y }, { right.Z, up.Z, forward.Z } });
+    }
+
     public void Draw(FrameContext frame) =>
         Draw(frame.Hdr, frame.Projection, frame.Observer.Ship, frame.CameraToShip, frame.Parallel);
 

@@ -13,10 +13,13 @@ namespace Lightward.Rendering.NearField;
 /// <param name="Spacing">Distance between neighbouring parallel lines, light-seconds.</param>
 /// <param name="Extent">Radius around the camera within which lines are drawn, light-seconds.</param>
 /// <param name="Brightness">HDR value of a line pixel at D = 1 (1 = a V = 0 star on the reference pixel).</param>
-public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin, LorentzFrame Frame, double Temperature = 6500, double Brightness = 2)
+public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin, LorentzFrame Frame, double Temperature = 6500, double Brightness = 0.25)
 {
-    /// <summary>Lines farther apart than this many spacings from the camera are not drawn (keeps the line count bounded).</summary>
-    public const int MaxLinesPerSide = 40;
+    /// <summary>Lines are drawn out to at most this many spacings from the camera, whatever the extent (bounds the line count and the frame time).</summary>
+    public const int MaxLinesPerSide = 10;
+
+    /// <summary>The radius actually drawn: the extent, or <see cref="MaxLinesPerSide"/> spacings if that is less.</summary>
+    public double DrawnRadius => Math.Min(Extent, MaxLinesPerSide * Spacing);
 
     /// <summary>A grid at rest in the home frame.</summary>
     public static SpaceGrid AtRestInHome(double spacing, double extent) => new(spacing, extent, new FourVector(0, 0, 0, 0), LorentzFrame.Identity);
@@ -27,7 +30,8 @@ public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin,
     /// </summary>
     public IEnumerable<(Vec3 From, Vec3 To)> LinesAround(Vec3 camera)
     {
-        int reach = Math.Min(MaxLinesPerSide, (int)Math.Ceiling(Extent / Spacing));
+        double radius = DrawnRadius;
+        int reach = (int)Math.Ceiling(radius / Spacing);
         for (int axis = 0; axis < 3; axis++)
         {
             Vec3 along = axis == 0 ? Vec3.UnitX : axis == 1 ? Vec3.UnitY : Vec3.UnitZ;
@@ -39,7 +43,7 @@ public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin,
                     // The line's point nearest the camera, and the half-chord of the extent sphere it runs through.
                     Vec3 foot = i * Spacing * first + j * Spacing * second + Vec3.Dot(camera, along) * along;
                     double offAxis = (foot - camera).LengthSquared;
-                    double halfChord = Extent * Extent - offAxis;
+                    double halfChord = radius * radius - offAxis;
                     if (halfChord <= 0) continue;
                     halfChord = Math.Sqrt(halfChord);
                     yield return (foot - halfChord * along, foot + halfChord * along);
@@ -51,7 +55,8 @@ public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin,
     public double Fade(double distance)
     {
         // Smoothstep over the outer third of the extent sphere.
-        double x = Math.Clamp((Extent - distance) / (Extent / 3), 0, 1);
+        double radius = DrawnRadius;
+        double x = Math.Clamp((radius - distance) / (radius / 3), 0, 1);
         return x * x * (3 - 2 * x);
     }
 }

@@ -110,7 +110,8 @@ public sealed class Flight
     /// <summary>
     /// A step of at most <paramref name="step"/> that ends where <paramref name="reached"/> first holds, found by
     /// bisection on the exact motion from the run's start and placed on <see cref="CrossingGrid"/>, so the crossing
-    /// does not depend on how the run was cut into steps. The caller has checked that it holds after the full step.
+    /// does not depend on how the run was cut into steps. The caller has checked that it holds after the full step
+    /// and calls <see cref="BeginRun"/> next.
     /// </summary>
     public void StepUntil(Controls requested, double step, Condition reached)
     {
@@ -126,10 +127,10 @@ public sealed class Flight
             else low = middle;
         }
         high = Math.Max(Math.Ceiling(high / CrossingGrid) * CrossingGrid, Math.BitIncrement(start));
-        // The step is recorded as a duration: the run's elapsed time must come back as exactly high on replay.
+        // The step is an ordinary one of duration high − start (so a replay repeats it), chosen so that the run's
+        // elapsed time comes out as exactly high; the pilot's next BeginRun puts the ship on the exact motion there.
         while (start + (high - start) != high) high = Math.BitIncrement(high);
-        _recorder?.Record(requested, high - start);
-        Advance(applied, origin, continues, high, anchored: true);
+        Step(requested, high - start);
     }
 
     private void Advance(Controls applied, ShipState origin, bool continues, double elapsed, bool anchored)

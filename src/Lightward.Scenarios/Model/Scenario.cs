@@ -49,17 +49,7 @@ public enum ShapeKind { Sphere, Box, Hull, Mesh }
 /// <summary>A body's shape in its own axes. Only the fields of its kind are meaningful.</summary>
 /// <param name="Size">Sphere: radius in X; box: edge lengths; hull: length in X; mesh: lengths per file unit in X.</param>
 /// <param name="MeshPath">Absolute path of a Wavefront OBJ file for <see cref="ShapeKind.Mesh"/>.</param>
-public sealed record ShapeSpec(ShapeKind Kind, Vec3 Size, string? MeshPath)
-{
-    /// <summary>A radius that encloses the shape, for distance checks and culling.</summary>
-    public double BoundingRadius => Kind switch
-    {
-        ShapeKind.Sphere => Size.X,
-        ShapeKind.Box => Size.Length / 2,
-        ShapeKind.Hull => Size.X / 2,
-        _ => 0,
-    };
-}
+public sealed record ShapeSpec(ShapeKind Kind, Vec3 Size, string? MeshPath);
 
 /// <summary>What the body gives off: a fixed sRGB colour (0–1 per channel) or a blackbody temperature, K.</summary>
 public sealed record EmissionSpec(Vec3? Colour, double? Temperature);

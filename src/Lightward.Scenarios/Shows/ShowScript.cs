@@ -8,6 +8,12 @@ namespace Lightward.Scenarios.Shows;
 /// <param name="Course">Unit direction (home ICRS axes) the ship points and flies along.</param>
 public sealed record ShowScript(string SourcePath, string Title, double Length, Vec3 Course, ShowCautions Cautions, IReadOnlyList<ShowCue> Cues)
 {
+    /// <summary>Spacing of the grid of space (at rest in the home frame), light-seconds.</summary>
+    public double GridSpacing { get; init; } = DefaultGridSpacing;
+
+    /// <summary>Half a light-year: a few lines pass each second of a typical burn at γ ≈ 10 and 10⁶ ship seconds per show second.</summary>
+    public const double DefaultGridSpacing = 0.5 * Units.LightYear;
+
     /// <summary>A name safe for file names (frame files, soundtrack files): the show file's name without <c>.show.toml</c>.</summary>
     public string DeliveryName
     {
@@ -55,7 +61,6 @@ public sealed record ShowCue(int Number, string Label, double At, double Transit
     /// <summary>Picture level 0 (black) … 1 (full).</summary>
     public double? Fade { get; init; }
     public bool? Grid { get; init; }
-    public bool? Bodies { get; init; }
     public bool? Instruments { get; init; }
     /// <summary>In a live show the clock stops at this cue until the operator says go.</summary>
     public bool Hold { get; init; }

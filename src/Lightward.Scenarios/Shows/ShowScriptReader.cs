@@ -46,6 +46,7 @@ public static class ShowScriptReader
         string? title = top.String("title", required: true, allowed: "the show's title");
         double? length = top.Quantity("length", Dimension.Time, v => v > 0 && v <= 24 * 3600, "a show length from above 0 s to 24 h", required: true);
         Vec3 course = ReadCourse(top.Section("course")) ?? Vec3.UnitX;
+        double gridSpacing = top.Quantity("grid_spacing", Dimension.Length, v => v > 0, "a positive length such as \"0.5 ly\"") ?? ShowScript.DefaultGridSpacing;
         ShowCautions cautions = ReadCautions(top.Section("cautions"));
         IReadOnlyList<TableReader> cueTables = top.Sections("cue", required: true);
         var cues = new List<ShowCue>();
@@ -55,7 +56,7 @@ public static class ShowScriptReader
 
         if (length is not null) CheckCueTimes(cueTables, cues, length.Value);
         if (problems.Count > 0 || title is null || length is null) return null;
-        return new ShowScript(Path.GetFullPath(path), title, length.Value, course, cautions, cues);
+        return new ShowScript(Path.GetFullPath(path), title, length.Value, course, cautions, cues) { GridSpacing = gridSpacing };
     }
 
     /// <summary>The course as ICRS right ascension and declination.</summary>
@@ -116,7 +117,7 @@ public static class ShowScriptReader
         lookTable?.Finish();
         double? fieldOfView = table.Quantity("field_of_view", Dimension.Angle, v => v >= Math.PI / 180 && v <= 170 * Math.PI / 180, "an angle from 1 deg to 170 deg");
         double? fade = ReadFade(table);
-        bool? grid = table.Boolean("grid"), bodies = table.Boolean("bodies"), instruments = table.Boolean("instruments");
+        bool? grid = table.Boolean("grid"), instruments = table.Boolean("instruments");
         bool hold = table.Boolean("hold") ?? false;
         SoundCue? sound = ReadSound(table.Section("sound"), directory);
         string? caption = table.String("caption", allowed: "the caption text, or \"\" to take the caption away");
@@ -126,7 +127,7 @@ public static class ShowScriptReader
         return new ShowCue(number, label, at.Value, transition, easing)
         {
             Rapidity = rapidity, TimeCompression = compression, Look = look, FieldOfView = fieldOfView, Fade = fade,
-            Grid = grid, Bodies = bodies, Instruments = instruments, Hold = hold, Sound = sound, Caption = caption,
+            Grid = grid, Instruments = instruments, Hold = hold, Sound = sound, Caption = caption,
         };
     }
 

@@ -9,7 +9,7 @@ namespace Lightward.Scenarios.Shows;
 /// <param name="Fade">Picture level 0 (black) … 1 (full).</param>
 public readonly record struct ShowMoment(
     double ShowTime, int CueIndex, ShipState Ship, double TimeCompression, Rotation Look, double FieldOfView, double Fade,
-    double GridOpacity, double BodiesOpacity, double InstrumentsOpacity, string Caption, double CaptionOpacity)
+    double GridOpacity, double InstrumentsOpacity, string Caption, double CaptionOpacity)
 {
     /// <summary>Camera axes → home-aligned comoving axes (ship orientation, then the look).</summary>
     public Rotation CameraOrientation => Ship.Frame.Orientation * Look;
@@ -30,7 +30,6 @@ public sealed class ShowTimeline
     private readonly EasedTrack<double> _fieldOfView = new(DefaultFieldOfView, Lerp);
     private readonly EasedTrack<double> _fade = new(1, Lerp);
     private readonly EasedTrack<double> _grid = new(0, Lerp);
-    private readonly EasedTrack<double> _bodies = new(1, Lerp);
     private readonly EasedTrack<double> _instruments = new(0, Lerp);
     private readonly List<ShowCue> _captionCues = [];
     private readonly ShowFlight _flight;
@@ -55,7 +54,6 @@ public sealed class ShowTimeline
             if (cue.FieldOfView is { } fieldOfView) _fieldOfView.MoveTo(at, fieldOfView, easing, transition);
             if (cue.Fade is { } fade) _fade.MoveTo(at, fade, easing, transition);
             if (cue.Grid is { } grid) _grid.MoveTo(at, grid ? 1 : 0, easing, transition);
-            if (cue.Bodies is { } bodies) _bodies.MoveTo(at, bodies ? 1 : 0, easing, transition);
             if (cue.Instruments is { } instruments) _instruments.MoveTo(at, instruments ? 1 : 0, easing, transition);
             if (cue.Caption is not null) _captionCues.Add(cue);
         }
@@ -72,6 +70,9 @@ public sealed class ShowTimeline
         double before = Math.Max(0, showTime - half), after = showTime + half;
         return (_rapidity.ValueAt(after) - _rapidity.ValueAt(before)) / ((after - before) * TimeCompressionAt(showTime));
     }
+
+    /// <summary>Rapidity still to gain (or shed) to reach the show's last speed target from <paramref name="showTime"/>.</summary>
+    public double RapidityToGo(double showTime) => _rapidity.ValueAt(double.PositiveInfinity) - _rapidity.ValueAt(showTime);
 
     /// <summary>The ship at every whole second of show time so far (for drawing the worldline behind it).</summary>
     public IEnumerable<ShipState> WorldlineUpTo(double showTime) => _flight.WholeSecondsUpTo(showTime);
@@ -92,7 +93,7 @@ public sealed class ShowTimeline
         (string caption, double captionOpacity) = CaptionAt(showTime);
         return new ShowMoment(
             showTime, CueIndexAt(showTime), _flight.At(showTime), TimeCompressionAt(showTime), _look.ValueAt(showTime),
-            _fieldOfView.ValueAt(showTime), _fade.ValueAt(showTime), _grid.ValueAt(showTime), _bodies.ValueAt(showTime),
+            _fieldOfView.ValueAt(showTime), _fade.ValueAt(showTime), _grid.ValueAt(showTime),
             _instruments.ValueAt(showTime), caption, captionOpacity);
     }
 

@@ -47,4 +47,12 @@ internal static class NearFieldImages
         double mean = (vxx + vyy) / 2, spread = Math.Sqrt((vxx - vyy) * (vxx - vyy) / 4 + vxy * vxy);
         return (sum, cx, cy, Math.Sqrt((mean - spread) / (mean + spread)));
     }
+
+    public static float MaxLuminance(HdrFrame frame)
+    {
+        float max = 0;
+        for (int y = 0; y < frame.Height; y++)
+            for (int x = 0; x < frame.Width; x++) max = Math.Max(max, frame.Luminance(x, y));
+        return max;
+    }
 }

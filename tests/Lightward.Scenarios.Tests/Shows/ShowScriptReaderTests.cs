@@ -31,7 +31,6 @@ public class ShowScriptReaderTests
         look = { azimuth = "180 deg", elevation = "10 deg" }
         field_of_view = "100 deg"
         grid = true
-        bodies = false
         instruments = true
         hold = true
         caption = "Leaving the yard"
@@ -57,7 +56,6 @@ public class ShowScriptReaderTests
         Assert.Equal(Math.PI, cue.Look!.Value.Azimuth, 12);
         Assert.Equal(100 * Math.PI / 180, cue.FieldOfView!.Value, 12);
         Assert.True(cue.Grid);
-        Assert.False(cue.Bodies);
         Assert.True(cue.Hold);
         Assert.Equal("Leaving the yard", cue.Caption);
         Assert.Equal(ShowCautions.Default, script.Cautions);

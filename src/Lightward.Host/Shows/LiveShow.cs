@@ -1,0 +1,60 @@
+using Lightward.Host.Input;
+using Lightward.Rendering;
+using Lightward.Scenarios.Shows;
+using Lightward.Spacetime;
+
+namespace Lightward.Host.Shows;
+
+/// <summary>What the operator can do; the operator console maps keys onto these.</summary>
+public enum OperatorCommand { Go, Hold, Back, ManualControl, End }
+
+/// <summary>
+/// Runs a show live: the <see cref="ShowOperator"/> clock follows the host's clock, each loop renders the show at the
+/// current show time onto the dome output host, and in manual control the view drag of the dome window (mouse or
+/// stick, through the pilot's look input) turns the camera instead of the cues.
+/// </summary>
+public sealed class LiveShow(ShowScript script, Scene scene, ShowRenderSettings settings)
+{
+    private readonly ShowTimeline _timeline = new(script);
+
+    public ShowOperator Operator { get; } = new(script);
+    public ShowTimeline Timeline => _timeline;
+
+    /// <param name="nextCommand">The operator's next command, or null when none is waiting.</param>
+    /// <param name="showStatus">Called after each frame with the moment shown, for the operator console.</param>
+    public void Run(IFrameHost dome, Func<OperatorCommand?> nextCommand, Action<ShowMoment> showStatus, CancellationToken cancellationToken)
+    {
+        using var renderer = new ShowFrameRenderer(_timeline, scene, settings);
+        var image = new RgbaImage(dome.Width, dome.Height);
+        var input = new PilotInput();
+        Rotation manualLook = Rotation.Identity;
+        double last = dome.Seconds;
+        while (!dome.CloseRequested && !cancellationToken.IsCancellationRequested)
+        {
+            input.BeginFrame();
+            dome.PollInput(input);
+            while (nextCommand() is { } command)
+            {
+                switch (command)
+                {
+                    case OperatorCommand.Go: Operator.Go(); break;
+                    case OperatorCommand.Hold: Operator.ToggleHold(); break;
+                    case OperatorCommand.Back: Operator.Back(); break;
+                    case OperatorCommand.ManualControl:
+                        Operator.ToggleManualControl();
+                        manualLook = _timeline.At(Operator.ShowTime).Look;
+                        break;
+                    case OperatorCommand.End: return;
+                }
+            }
+            double now = dome.Seconds;
+            Operator.Advance(now - last);
+            last = now;
+            if (Operator.ManualControl)
+                manualLook = (Rotation.FromAxisAngle(Vec3.UnitY, input.LookYaw) * manualLook * Rotation.FromAxisAngle(Vec3.UnitX, -input.LookPitch)).Normalized();
+            ShowMoment moment = renderer.RenderAt(Operator.ShowTime, image, Operator.ManualControl ? manualLook : null);
+            dome.Present(image.Pixels);
+            showStatus(moment);
+        }
+    }
+}

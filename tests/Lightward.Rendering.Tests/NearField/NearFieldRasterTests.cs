@@ -1,0 +1,87 @@
+using Lightward.Rendering.NearField;
+using Lightward.Rendering.Projections;
+using Lightward.Spacetime;
+
+namespace Lightward.Rendering.Tests.NearField;
+
+public class NearFieldRasterTests
+{
+    private static NearFieldBody Ball(Vec3 position, double radius = 1, Vec3? beta = null) =>
+        new("ball", MeshShapes.Sphere(radius, bands: 24), NearFieldImages.Passing(position, -position.Length, beta ?? Vec3.Zero), NearFieldImages.Glow);
+
+    private static double LitArea(HdrFrame frame, float fullPixel)
+    {
+        double area = 0;
+        for (int y = 0; y < frame.Height; y++)
+            for (int x = 0; x < frame.Width; x++) area += Math.Min(1, frame.Luminance(x, y) / fullPixel);
+        return area;
+    }
+
+    [Fact]
+    public void EquirectangularWrapSeamCutsNothingOut()
+    {
+        var projection = new EquirectangularProjection(720, 360);
+        HdrFrame ahead = NearFieldImages.Render(NearFieldImages.Layer(Ball(new Vec3(10, 0, 0))), projection, NearFieldImages.ShipAtRest(), Rotation.Identity);
+        // Straight behind the camera the image is split between the left and right edges of the picture.
+        HdrFrame behind = NearFieldImages.Render(NearFieldImages.Layer(Ball(new Vec3(0, 0, -10))), projection, NearFieldImages.ShipAtRest(), Rotation.Identity);
+        double aheadArea = LitArea(ahead, NearFieldImages.MaxLuminance(ahead)), behindArea = LitArea(behind, NearFieldImages.MaxLuminance(behind));
+        Assert.True(behind.Luminance(0, 180) > 0 && behind.Luminance(719, 180) > 0, "both halves drawn at the seam");
+        // Both lie on the equator of the map, where equal solid angles cover equal pixel areas.
+        Assert.Equal(aheadArea, behindArea, aheadArea * 0.01);
+    }
+
+    [Fact]
+    public void DomeShowsNothingOutsideItsDisc()
+    {
+        var projection = new DomemasterProjection(400, Math.PI);
+        // A large sphere on the dome's horizon (camera +X), cut by the rim.
+        HdrFrame frame = NearFieldImages.Render(NearFieldImages.Layer(Ball(new Vec3(10, 0, 0), radius: 3)), projection, NearFieldImages.ShipAtRest(), Rotation.Identity);
+        double inside = 0, outside = 0;
+        for (int y = 0; y < 400; y++)
+            for (int x = 0; x < 400; x++)
+            {
+                double r = Math.Sqrt((x + 0.5 - 200) * (x + 0.5 - 200) + (y + 0.5 - 200) * (y + 0.5 - 200));
+                if (r > 201) outside += frame.Luminance(x, y);
+                else inside += frame.Luminance(x, y);
+            }
+        Assert.True(inside > 0);
+        Assert.Equal(0, outside);
+    }
+
+    [Fact]
+    public void SameFrameWithOneOrTwoThreadsIsIdentical()
+    {
+        NearFieldBody[] bodies =
+        [
+            Ball(new Vec3(-3, 0, 20), beta: new Vec3(0.7, 0, 0)),
+            new("hull", MeshShapes.Hull(4), NearFieldImages.Passing(new Vec3(3, 1, 18), -18, new Vec3(0, -0.5, 0)), NearFieldImages.Glow),
+        ];
+        var layer = new NearFieldLayer(bodies, SpaceGrid.AtRestInHome(2, 16));
+        var projection = new PerspectiveProjection(320, 200, Math.PI / 2);
+        ShipState ship = ShipState.AtRest(new FourVector(0, 0.3, 0.2, 0.1)) with { Frame = new LorentzFrame(new Velocity(1.5, Vec3.UnitZ), Rotation.Identity) };
+        HdrFrame one = NearFieldImages.Render(layer, projection, ship, Rotation.Identity, threads: 1);
+        HdrFrame two = NearFieldImages.Render(layer, projection, ship, Rotation.Identity, threads: 2);
+        HdrFrame again = NearFieldImages.Render(layer, projection, ship, Rotation.Identity, threads: 2);
+        // Determinism is our own rule (DEVELOPERS.md): no pixel may depend on thread scheduling.
+        Assert.Equal(one.Red, two.Red);
+        Assert.Equal(one.Green, two.Green);
+        Assert.Equal(one.Blue, again.Blue);
+        Assert.True(one.Red.Sum() > 0);
+    }
+
+    [Fact]
+    public void GridAheadOfAFastShipIsBluerAndBrighterThanBehindIt()
+    {
+        var grid = new NearFieldLayer([], SpaceGrid.AtRestInHome(1, 8));
+        var projection = new PerspectiveProjection(200, 200, Math.PI / 2);
+        ShipState ship = ShipState.AtRest(new FourVector(0, 0.5, 0.5, 0.5)) with { Frame = new LorentzFrame(new Velocity(1, Vec3.UnitZ), Rotation.Identity) };
+        HdrFrame ahead = NearFieldImages.Render(grid, projection, ship, Rotation.Identity);
+        HdrFrame behind = NearFieldImages.Render(grid, projection, ship, Rotation.FromAxisAngle(Vec3.UnitY, Math.PI));
+        // Rybicki & Lightman (1979) ch. 4: a blackbody seen with Doppler factor D is a blackbody at D·T, brighter and
+        // bluer ahead (D up to e^φ) and fainter and redder behind (down to e^−φ).
+        double aheadLight = ahead.Red.Sum() + ahead.Green.Sum() + ahead.Blue.Sum(), behindLight = behind.Red.Sum() + behind.Green.Sum() + behind.Blue.Sum();
+        Assert.True(aheadLight > 5 * behindLight, $"ahead {aheadLight}, behind {behindLight}");
+        Assert.True(ahead.Blue.Sum() / ahead.Red.Sum() > behind.Blue.Sum() / behind.Red.Sum());
+    }
+
+}
