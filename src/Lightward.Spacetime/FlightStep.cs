@@ -25,11 +25,32 @@ public sealed class FlightStep
         Controls = controls;
         Duration = duration;
 
+        (EndProperVelocity, EndRotation, Displacement) = controls.AttitudeRate == Vec3.Zero
+            ? PureBoost(controls.ProperAcceleration, duration)
+            : General(controls, duration);
+    }
+
+    /// <summary>
+    /// Thrust without turning, the common case: hyperbolic motion in closed form, u = sinh(aτ) â,
+    /// t = sinh(aτ)/a, x = 2 sinh²(aτ/2)/a (cosh − 1 without cancellation); no series, no allocation.
+    /// </summary>
+    private static (Vec3, Rotation, FourVector) PureBoost(Vec3 acceleration, double duration)
+    {
+        double magnitude = acceleration.Length;
+        if (magnitude == 0) return (Vec3.Zero, Rotation.Identity, new FourVector(duration, 0, 0, 0));
+        Vec3 along = acceleration / magnitude;
+        double rapidity = magnitude * duration;
+        double halfSinh = Math.Sinh(rapidity / 2);
+        double sinh = Math.Sinh(rapidity);
+        return (sinh * along, Rotation.Identity, new FourVector(sinh / magnitude, along * (2 * halfSinh * halfSinh / magnitude)));
+    }
+
+    private static (Vec3, Rotation, FourVector) General(Controls controls, double duration)
+    {
         double[] generator = Generator(controls, duration);
         (double[] exponential, double[] displacement) = ExponentialAndIntegral(generator, duration);
 
         Vec3 endU = new(exponential[4], exponential[8], exponential[12]);
-        EndProperVelocity = endU;
         // R = B(u)⁻¹ E; its spatial block is the rotation.
         Velocity endVelocity = Velocity.FromProperVelocity(endU);
         var rotation = new double[3, 3];
@@ -39,8 +60,7 @@ public sealed class FlightStep
             FourVector unboosted = endVelocity.BoostFromHome(image);
             rotation[0, column] = unboosted.X; rotation[1, column] = unboosted.Y; rotation[2, column] = unboosted.Z;
         }
-        EndRotation = Rotation.FromMatrix(rotation);
-        Displacement = new FourVector(displacement[0], displacement[1], displacement[2], displacement[3]);
+        return (endU, Rotation.FromMatrix(rotation), new FourVector(displacement[0], displacement[1], displacement[2], displacement[3]));
     }
 
     /// <summary>dτ·G as a row-major 4×4 matrix: dΛ/dτ = Λ G with G = [[0, aᵀ], [a, [ω]×]].</summary>

@@ -63,6 +63,20 @@ public class FlightIntegratorTests
     }
 
     [Fact]
+    public void Closed_form_thrust_step_agrees_with_the_series_exponential()
+    {
+        // Hyperbolic motion (Rindler 2006, ch. 3): u = sinh(aτ), t = sinh(aτ)/a, x = (cosh(aτ) − 1)/a. The closed form
+        // used for thrust without turning must match the general series path, reached here by a turn rate far below rounding.
+        var acceleration = new Vec3(0.3, -0.2, 0.9);
+        var closedForm = new FlightStep(new Controls(acceleration, Vec3.Zero), 1.7);
+        var series = new FlightStep(new Controls(acceleration, new Vec3(0, 0, 1e-300)), 1.7);
+        Assert.True((closedForm.EndProperVelocity - series.EndProperVelocity).Length <= 1e-14 * closedForm.EndProperVelocity.Length);
+        Assert.True(Math.Abs(closedForm.Displacement.T - series.Displacement.T) <= 1e-14 * closedForm.Displacement.T);
+        Assert.True((closedForm.Displacement.Space - series.Displacement.Space).Length <= 1e-14 * closedForm.Displacement.T);
+        Assert.True(series.EndRotation.Angle < 1e-14);
+    }
+
+    [Fact]
     public void Round_trip_to_rapidity_25_returns_to_rest()
     {
         // Collinear rapidities add (Einstein 1905, §5, addition of velocities: tanh(φ₁ + φ₂) = (β₁ + β₂)/(1 + β₁β₂)): +25 then −25 is rest.

@@ -18,7 +18,6 @@ public sealed class LiveShow(ShowScript script, Scene scene, ShowRenderSettings 
     private readonly ShowTimeline _timeline = new(script);
 
     public ShowOperator Operator { get; } = new(script);
-    public ShowTimeline Timeline => _timeline;
 
     /// <param name="nextCommand">The operator's next command, or null when none is waiting.</param>
     /// <param name="showStatus">Called after each frame with the moment shown, for the operator console.</param>

@@ -13,6 +13,10 @@ public interface ITaskWatch
     string Status { get; }
     /// <summary>True once the task has succeeded or failed.</summary>
     bool IsDecided { get; }
+    /// <summary>True once it succeeded; false while flying or after a failure.</summary>
+    bool Succeeded { get; }
+    /// <summary>True while a time limit is close (less than a tenth of it left) and the task is still open.</summary>
+    bool TimeShort { get; }
     /// <summary>Looks at the motion from <paramref name="before"/> to <paramref name="after"/> (one frame's worth of ticks).</summary>
     void Observe(in ShipState before, in ShipState after);
 }

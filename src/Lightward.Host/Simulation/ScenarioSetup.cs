@@ -34,7 +34,13 @@ public static class ScenarioSetup
         private readonly TaskMonitor _monitor = TaskMonitor.For(scenario);
         private TaskVerdict? _verdict;
 
+        /// <summary>Fraction of a time limit left below which the time-short alert sounds (common practice, no published source).</summary>
+        private const double ShortFraction = 0.1;
+        private bool _timeShort;
+
         public bool IsDecided => _verdict is not null;
+        public bool Succeeded => _verdict is { Success: true };
+        public bool TimeShort => _timeShort && _verdict is null;
 
         public string Status => _verdict is { } verdict
             ? $"{(verdict.Success ? "done" : "failed")}: {verdict.Reason}"
@@ -44,8 +50,11 @@ public static class ScenarioSetup
         {
             _verdict = _monitor.Observe(before, after);
             if (_verdict is not null) return;
+            double homeFlown = after.HomeTime - scenario.Ship.Start.T;
+            _timeShort = after.ShipTime >= (1 - ShortFraction) * scenario.Flight.ShipTimeLimit
+                || homeFlown >= (1 - ShortFraction) * scenario.Flight.HomeTimeLimit;
             if (after.ShipTime >= scenario.Flight.ShipTimeLimit) _verdict = _monitor.TimeUp("ship time limit");
-            else if (after.HomeTime - scenario.Ship.Start.T >= scenario.Flight.HomeTimeLimit) _verdict = _monitor.TimeUp("home time limit");
+            else if (homeFlown >= scenario.Flight.HomeTimeLimit) _verdict = _monitor.TimeUp("home time limit");
         }
     }
 }

@@ -46,8 +46,8 @@ public sealed class GridImager
         _camera = _sight.CameraEvent.Space;
         foreach ((Vec3 from, Vec3 to) in grid.LinesAround(_camera))
         {
-            // Start from pieces of half a spacing so no bend is skipped between coarse samples.
-            int pieces = Math.Max(2, (int)Math.Ceiling((to - from).Length / (grid.Spacing / 2)));
+            // Start from pieces of one spacing so no bend is skipped between coarse samples.
+            int pieces = Math.Max(2, (int)Math.Ceiling((to - from).Length / grid.Spacing));
             Sample previous = See(from);
             for (int k = 1; k <= pieces; k++)
             {
@@ -69,7 +69,7 @@ public sealed class GridImager
     private void Refine(in Sample a, in Sample b, int halvings, List<PixelSegment> output)
     {
         if (a.Colour == Vector3.Zero && b.Colour == Vector3.Zero) return;
-        // A piece's image bends away from its chord's great circle by far less than this once it is half a spacing long or shorter.
+        // A piece's image bends away from its chord's great circle by far less than this once it is a spacing long or shorter.
         if (_view.MissesArc(a.Direction, b.Direction, ArcMargin)) return;
         Sample middle = See((a.Point + b.Point) / 2);
         float length = MathF.Sqrt((b.X - a.X) * (b.X - a.X) + (b.Y - a.Y) * (b.Y - a.Y));
