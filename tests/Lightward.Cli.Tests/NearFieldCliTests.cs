@@ -5,15 +5,13 @@ namespace Lightward.Cli.Tests;
 /// <summary>Bodies and the grid of space from the command line: render and observe with a scenario, and the --grid flag.</summary>
 public class NearFieldCliTests
 {
-    private static string Scenario(string name) => Path.Combine(CliRunner.RepositoryRoot, "scenarios", name);
-
     [Fact]
     public void RenderDrawsAScenarioWithItsBodiesGridAndClockDial()
     {
         string output = Path.Combine(Path.GetTempPath(), $"lw-nearfield-{Guid.NewGuid():N}.png");
         try
         {
-            var result = CliRunner.Run("render", Scenario("dock-tessaly.toml"), "--size", "320x200", "--fov", "0.5", "--look", "Tessaly Ring", "--out", output);
+            var result = CliRunner.Run("render", ShippedScenarios.File("dock-tessaly.toml"), "--size", "320x200", "--fov", "0.5", "--look", "Tessaly Ring", "--out", output);
             Assert.True(result.ExitCode == 0, result.Stderr);
             Assert.True(new FileInfo(output).Length > 0);
         }
@@ -36,7 +34,7 @@ public class NearFieldCliTests
     [Fact]
     public void ObserveListsBodiesWithTheirClocks()
     {
-        var result = CliRunner.Run("observe", Scenario("dock-tessaly.toml"), "--limit", "1", "--json");
+        var result = CliRunner.Run("observe", ShippedScenarios.File("dock-tessaly.toml"), "--limit", "1", "--json");
         Assert.True(result.ExitCode == 0, result.Stderr);
         using JsonDocument json = JsonDocument.Parse(result.Stdout);
         JsonElement ring = json.RootElement.GetProperty("bodies").EnumerateArray().Single(b => b.GetProperty("name").GetString() == "Tessaly Ring");

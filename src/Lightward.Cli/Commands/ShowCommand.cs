@@ -15,8 +15,8 @@ namespace Lightward.Cli.Commands;
 
 /// <summary>
 /// `lightward show`: runs a show live. The dome output is a window (full screen on a chosen monitor for the projector);
-/// the operator console runs in the terminal: the cue list with the current cue and the one standing by, the show,
-/// ship and home clocks, and the keys go, hold, back and manual control.
+/// the operator console runs in the terminal: a small preview of the dome, the cue list with the current cue and the one
+/// standing by, the show, ship and home clocks, and the keys go, hold, back and manual control.
 /// </summary>
 public sealed class ShowCommand : Command<ShowCommand.Settings>
 {
@@ -57,11 +57,11 @@ public sealed class ShowCommand : Command<ShowCommand.Settings>
         {
             var live = new LiveShow(script, new Scene(StarCatalog.LoadHipparcos()), new ShowRenderSettings(camera, Audio.FrameRate.Named["60"], false, false));
             DateTime lastDrawn = DateTime.MinValue;
-            AnsiConsole.Live(OperatorPanel(live, null)).Start(display => live.Run(dome!, ReadCommand, moment =>
+            AnsiConsole.Live(OperatorPanel(live, null, null)).Start(display => live.Run(dome!, ReadCommand, (moment, picture) =>
             {
                 if ((DateTime.UtcNow - lastDrawn).TotalSeconds < 0.2) return;
                 lastDrawn = DateTime.UtcNow;
-                display.UpdateTarget(OperatorPanel(live, moment));
+                display.UpdateTarget(OperatorPanel(live, moment, picture));
             }, cancellationToken));
         }
         return ErrorReporting.Success;
@@ -82,7 +82,7 @@ public sealed class ShowCommand : Command<ShowCommand.Settings>
         };
     }
 
-    private static IRenderable OperatorPanel(LiveShow live, ShowMoment? moment)
+    private static IRenderable OperatorPanel(LiveShow live, ShowMoment? moment, RgbaImage? picture)
     {
         ShowOperator show = live.Operator;
         var cues = new Table().Border(TableBorder.Rounded).AddColumns("", "cue", "at", "label", "changes");
@@ -98,11 +98,35 @@ public sealed class ShowCommand : Command<ShowCommand.Settings>
         string clocks = moment is { } m
             ? $"show {Clock(show.ShowTime)} / {Clock(show.Script.Length)}   ship {Span(m.Ship.ShipTime)}   home {Span(m.Ship.HomeTime)}   rapidity {m.Ship.Velocity.Rapidity:0.000}   x{m.TimeCompression:G3}"
             : $"show {Clock(show.ShowTime)} / {Clock(show.Script.Length)}";
+        IRenderable cueList = picture is null ? cues : new Columns(Preview(picture), cues);
         return new Rows(
             new Markup($"[bold]{Markup.Escape(show.Script.Title)}[/]   {mode}"),
             new Text(clocks),
-            cues,
+            cueList,
             new Markup("[grey]space/G go · H hold/resume · B back · M manual control · Q end[/]"));
+    }
+
+    /// <summary>The dome picture shrunk to a few dozen terminal cells (each cell the mean of its block of pixels).</summary>
+    private static Canvas Preview(RgbaImage picture)
+    {
+        const int cells = 24;
+        var canvas = new Canvas(cells, cells);
+        for (int row = 0; row < cells; row++)
+            for (int column = 0; column < cells; column++)
+            {
+                int x0 = column * picture.Width / cells, x1 = Math.Max(x0 + 1, (column + 1) * picture.Width / cells);
+                int y0 = row * picture.Height / cells, y1 = Math.Max(y0 + 1, (row + 1) * picture.Height / cells);
+                long r = 0, g = 0, b = 0;
+                for (int y = y0; y < y1; y++)
+                    for (int x = x0; x < x1; x++)
+                    {
+                        (byte pr, byte pg, byte pb) = picture[x, y];
+                        r += pr; g += pg; b += pb;
+                    }
+                long count = (long)(x1 - x0) * (y1 - y0);
+                canvas.SetPixel(column, row, new Color((byte)(r / count), (byte)(g / count), (byte)(b / count)));
+            }
+        return canvas;
     }
 
     private static string Changes(ShowCue cue) => string.Join(", ", new[]

@@ -20,8 +20,8 @@ public sealed class LiveShow(ShowScript script, Scene scene, ShowRenderSettings 
     public ShowOperator Operator { get; } = new(script);
 
     /// <param name="nextCommand">The operator's next command, or null when none is waiting.</param>
-    /// <param name="showStatus">Called after each frame with the moment shown, for the operator console.</param>
-    public void Run(IFrameHost dome, Func<OperatorCommand?> nextCommand, Action<ShowMoment> showStatus, CancellationToken cancellationToken)
+    /// <param name="showStatus">Called after each frame with the moment and the picture shown, for the operator console.</param>
+    public void Run(IFrameHost dome, Func<OperatorCommand?> nextCommand, Action<ShowMoment, RgbaImage> showStatus, CancellationToken cancellationToken)
     {
         using var renderer = new ShowFrameRenderer(_timeline, scene, settings);
         var image = new RgbaImage(dome.Width, dome.Height);
@@ -53,7 +53,7 @@ public sealed class LiveShow(ShowScript script, Scene scene, ShowRenderSettings 
                 manualLook = (Rotation.FromAxisAngle(Vec3.UnitY, input.LookYaw) * manualLook * Rotation.FromAxisAngle(Vec3.UnitX, -input.LookPitch)).Normalized();
             ShowMoment moment = renderer.RenderAt(Operator.ShowTime, image, Operator.ManualControl ? manualLook : null);
             dome.Present(image.Pixels);
-            showStatus(moment);
+            showStatus(moment, image);
         }
     }
 }

@@ -25,6 +25,7 @@ public sealed class InstrumentOverlay : IDisposable
     private readonly SKPaint _fill = new() { IsAntialias = true, Style = SKPaintStyle.Fill };
     private readonly SKPaint _stroke = new() { IsAntialias = true, Style = SKPaintStyle.Stroke };
     private readonly SKPath _path = new();
+    private SKFont? _font, _smallFont;
 
     /// <summary>Uses the bundled monospace font, so columns of digits line up.</summary>
     public InstrumentOverlay() => _typeface = BundledFonts.Load(BundledFonts.MonoFileName);
@@ -39,10 +40,17 @@ public sealed class InstrumentOverlay : IDisposable
                 ?? throw new InvalidOperationException("could not wrap the frame for drawing");
             SKCanvas canvas = surface.Canvas;
             float unit = Math.Clamp(height / 42f, 10f, 30f);
-            using var font = new SKFont(_typeface, unit);
+            if (_font?.Size != unit)
+            {
+                _font?.Dispose();
+                _smallFont?.Dispose();
+                _font = new SKFont(_typeface, unit);
+                _smallFont = new SKFont(_typeface, unit * 0.75f);
+            }
+            SKFont font = _font!;
             DrawReadout(canvas, font, unit, readings);
             float side = Math.Min(width, height) * 0.34f;
-            DrawSpacetimeDiagram(canvas, font, new SKRect(width - side - unit, height - side - unit, width - unit, height - unit), readings, trace);
+            DrawSpacetimeDiagram(canvas, _smallFont!, new SKRect(width - side - unit, height - side - unit, width - unit, height - unit), readings, trace);
             canvas.Flush();
         }
     }
@@ -96,7 +104,7 @@ public sealed class InstrumentOverlay : IDisposable
     /// Home-frame t–x diagram, x along the line from home toward the target (or toward the ship when there is no
     /// target), equal scales on both axes so light rays run at 45°.
     /// </summary>
-    private void DrawSpacetimeDiagram(SKCanvas canvas, SKFont font, SKRect box, FlightReadings r, WorldlineTrace trace)
+    private void DrawSpacetimeDiagram(SKCanvas canvas, SKFont small, SKRect box, FlightReadings r, WorldlineTrace trace)
     {
         _fill.Color = PanelShade;
         canvas.DrawRoundRect(box, 8, 8, _fill);
@@ -152,7 +160,6 @@ public sealed class InstrumentOverlay : IDisposable
         canvas.DrawCircle(P(now.T, X(now)), 4, _fill);
         canvas.Restore();
 
-        using var small = new SKFont(_typeface, font.Size * 0.75f);
         _fill.Color = LabelColour;
         canvas.DrawText("home t-x", box.Left + 6, box.Top + small.Size + 4, small, _fill);
         canvas.DrawText($"span {Readout.Clock(span)}", box.Left + 6, box.Bottom - 6, small, _fill);
@@ -161,6 +168,8 @@ public sealed class InstrumentOverlay : IDisposable
     public void Dispose()
     {
         _path.Dispose();
+        _font?.Dispose();
+        _smallFont?.Dispose();
         _fill.Dispose();
         _stroke.Dispose();
         _typeface.Dispose();
