@@ -5,6 +5,7 @@ using Lightward.Audio;
 using Lightward.Host.Shows;
 using Lightward.Optics;
 using Lightward.Rendering;
+using Lightward.Rendering.NearField;
 using Lightward.Rendering.Safety;
 using Lightward.Scenarios.Shows;
 using Lightward.Spacetime;
@@ -129,7 +130,7 @@ public sealed class RenderShowCommand : Command<RenderShowCommand.Settings>
             {
                 ProgressTask task = progress.AddTask("rendering", maxValue: pending.Count);
                 int done = 0;
-                job.RenderFrames(scene, pending, _ =>
+                job.RenderFrames(scene, SceneNearField(job.Script), pending, _ =>
                 {
                     int count = Interlocked.Increment(ref done);
                     double rate = count / Math.Max(1e-9, clock.Elapsed.TotalSeconds);
@@ -138,6 +139,10 @@ public sealed class RenderShowCommand : Command<RenderShowCommand.Settings>
                 }, cancellationToken);
             });
     }
+
+    /// <summary>The bodies and grid of the show's scene (built as the view commands build them), or an empty near field.</summary>
+    internal static NearFieldLayer SceneNearField(ShowScript script) =>
+        script.Scene is { } scene ? ViewNearField.FromScenario(scene) : new NearFieldLayer([], null);
 
     private static ShowRenderSettings RenderSettingsFrom(Settings settings)
     {

@@ -55,7 +55,7 @@ public sealed class ShowCommand : Command<ShowCommand.Settings>
 
         using (dome)
         {
-            var live = new LiveShow(script, new Scene(StarCatalog.LoadHipparcos()), new ShowRenderSettings(camera, Audio.FrameRate.Named["60"], false, false));
+            var live = new LiveShow(script, new Scene(StarCatalog.LoadHipparcos()), RenderShowCommand.SceneNearField(script), new ShowRenderSettings(camera, Audio.FrameRate.Named["60"], false, false));
             DateTime lastDrawn = DateTime.MinValue;
             AnsiConsole.Live(OperatorPanel(live, null, null)).Start(display => live.Run(dome!, ReadCommand, (moment, picture) =>
             {
@@ -133,7 +133,7 @@ public sealed class ShowCommand : Command<ShowCommand.Settings>
     {
         cue.Hold ? "hold" : null, cue.Rapidity is not null ? "speed" : null, cue.TimeCompression is not null ? "time" : null,
         cue.Look is not null ? "look" : null, cue.FieldOfView is not null ? "field" : null, cue.Fade is not null ? "fade" : null,
-        cue.Grid is not null ? "grid" : null, cue.Instruments is not null ? "instruments" : null,
+        cue.Grid is not null ? "grid" : null, cue.Bodies is not null ? "bodies" : null, cue.Instruments is not null ? "instruments" : null,
         cue.Sound is not null ? "sound" : null, cue.Caption is not null ? "caption" : null,
     }.Where(c => c is not null));
 

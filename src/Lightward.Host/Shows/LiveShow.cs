@@ -1,5 +1,6 @@
 using Lightward.Host.Input;
 using Lightward.Rendering;
+using Lightward.Rendering.NearField;
 using Lightward.Scenarios.Shows;
 using Lightward.Spacetime;
 
@@ -13,7 +14,7 @@ public enum OperatorCommand { Go, Hold, Back, ManualControl, End }
 /// current show time onto the dome output host, and in manual control the view drag of the dome window (mouse or
 /// stick, through the pilot's look input) turns the camera instead of the cues.
 /// </summary>
-public sealed class LiveShow(ShowScript script, Scene scene, ShowRenderSettings settings)
+public sealed class LiveShow(ShowScript script, Scene scene, NearFieldLayer sceneNearField, ShowRenderSettings settings)
 {
     private readonly ShowTimeline _timeline = new(script);
 
@@ -23,7 +24,7 @@ public sealed class LiveShow(ShowScript script, Scene scene, ShowRenderSettings 
     /// <param name="showStatus">Called after each frame with the moment and the picture shown, for the operator console.</param>
     public void Run(IFrameHost dome, Func<OperatorCommand?> nextCommand, Action<ShowMoment, RgbaImage> showStatus, CancellationToken cancellationToken)
     {
-        using var renderer = new ShowFrameRenderer(_timeline, scene, settings);
+        using var renderer = new ShowFrameRenderer(_timeline, scene, sceneNearField, settings);
         var image = new RgbaImage(dome.Width, dome.Height);
         var input = new PilotInput();
         Rotation manualLook = Rotation.Identity;

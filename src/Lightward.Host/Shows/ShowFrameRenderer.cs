@@ -26,19 +26,23 @@ public sealed class ShowFrameRenderer : IDisposable
     private readonly ShowRenderSettings _settings;
     private readonly FrameRenderer _renderer;
     private readonly InstrumentOverlay _instruments = new();
-    private readonly NearFieldLayer _grid;
+    private readonly NearFieldLayer _sceneNearField;
+    private readonly SpaceGrid _grid;
+    private NearFieldLayer? _gridOnly;
     private readonly SKTypeface _captionFace = BundledFonts.Load(BundledFonts.SansFileName);
     private readonly byte[] _fadeTable = new byte[256];
     private byte[] _beforeInstruments = [];
 
-    public ShowFrameRenderer(ShowTimeline timeline, Scene scene, ShowRenderSettings settings)
+    /// <param name="sceneNearField">The bodies (and grid, if any) of the show's scene; empty for a show in open space.</param>
+    public ShowFrameRenderer(ShowTimeline timeline, Scene scene, NearFieldLayer sceneNearField, ShowRenderSettings settings)
     {
         _timeline = timeline;
         _scene = scene;
         _settings = settings;
         _renderer = new FrameRenderer(settings.Threads);
-        // Ten spacings around the camera, the lattice at rest in the home frame the ship leaves.
-        _grid = new NearFieldLayer([], SpaceGrid.AtRestInHome(timeline.Script.GridSpacing, 10 * timeline.Script.GridSpacing));
+        _sceneNearField = sceneNearField;
+        // The scene's own grid, else ten spacings around the camera of the lattice at rest in the home frame the ship leaves.
+        _grid = sceneNearField.Grid ?? SpaceGrid.AtRestInHome(timeline.Script.GridSpacing, 10 * timeline.Script.GridSpacing);
     }
 
     /// <summary>Show time of frame <paramref name="frame"/> (1-based): (frame − 1) / fps, as an exact fraction.</summary>
@@ -53,15 +57,26 @@ public sealed class ShowFrameRenderer : IDisposable
         if (manualLook is { } look) moment = moment with { Look = look };
         Camera camera = _settings.Camera.Kind == ProjectionKind.Perspective ? _settings.Camera with { FieldOfView = moment.FieldOfView } : _settings.Camera;
         if (camera.Width != image.Width || camera.Height != image.Height) camera = camera with { Width = image.Width, Height = image.Height };
-        // An HDR layer cannot be blended after tone mapping, so the grid comes and goes at the middle of its transition.
         _renderer.Layers.Clear();
-        if (moment.GridOpacity >= 0.5) _renderer.Layers.Add(_grid);
+        if (NearFieldFor(moment) is { } nearField) _renderer.Layers.Add(nearField);
         _renderer.Render(_scene, new Observer(moment.Ship, moment.Look), camera, image);
         if (moment.InstrumentsOpacity > 0) DrawInstruments(moment, image);
         if (moment.CaptionOpacity > 0 && moment.Caption.Length > 0) DrawCaption(moment.Caption, moment.CaptionOpacity, image);
         if (moment.Fade < 1) Fade(moment.Fade, image);
         if (_settings.FlipHorizontal || _settings.FlipVertical) Flip(image, _settings.FlipHorizontal, _settings.FlipVertical);
         return moment;
+    }
+
+    /// <summary>
+    /// The grid fades by its own brightness (light added to the HDR frame, so the fade is even). Bodies are opaque
+    /// surfaces that cannot be blended after tone mapping, so they come and go at the middle of their transition.
+    /// </summary>
+    private NearFieldLayer? NearFieldFor(ShowMoment moment)
+    {
+        SpaceGrid? grid = moment.GridOpacity > 0 ? _grid with { Brightness = _grid.Brightness * moment.GridOpacity } : null;
+        NearFieldLayer? layer = moment.BodiesOpacity >= 0.5 ? _sceneNearField : grid is null ? null : _gridOnly ??= new NearFieldLayer([], null);
+        if (layer is not null) layer.Grid = grid;
+        return layer;
     }
 
     private void DrawInstruments(ShowMoment moment, RgbaImage image)

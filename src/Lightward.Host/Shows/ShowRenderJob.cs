@@ -3,6 +3,7 @@ using System.Security.Cryptography;
 using System.Text;
 using Lightward.Audio;
 using Lightward.Rendering;
+using Lightward.Rendering.NearField;
 using Lightward.Rendering.Safety;
 using Lightward.Scenarios.Shows;
 using Lightward.Spacetime;
@@ -87,10 +88,10 @@ public sealed class ShowRenderJob
     /// Renders the pending frames in order, encoding each PNG while the next frame renders. <paramref name="frameDone"/>
     /// is called after each frame is in place.
     /// </summary>
-    public void RenderFrames(Scene scene, IReadOnlyList<int> frames, Action<int> frameDone, CancellationToken cancellationToken)
+    public void RenderFrames(Scene scene, NearFieldLayer sceneNearField, IReadOnlyList<int> frames, Action<int> frameDone, CancellationToken cancellationToken)
     {
         if (frames.Count == 0) return;
-        using var renderer = new ShowFrameRenderer(_timeline, scene, _settings);
+        using var renderer = new ShowFrameRenderer(_timeline, scene, sceneNearField, _settings);
         Camera camera = _settings.Camera;
         RgbaImage[] images = [new RgbaImage(camera.Width, camera.Height), new RgbaImage(camera.Width, camera.Height)];
         Task writing = Task.CompletedTask;
@@ -162,6 +163,11 @@ public sealed class ShowRenderJob
         text.AppendLine("# Render settings of this delivery folder: every run into it (shards, resumed runs) must use the same.");
         text.AppendLine($"show = \"{Path.GetFileName(Script.SourcePath)}\"");
         text.AppendLine($"show_sha256 = \"{Convert.ToHexStringLower(SHA256.HashData(File.ReadAllBytes(Script.SourcePath)))}\"");
+        if (Script.Scene is { } sceneFile)
+        {
+            text.AppendLine($"scene = \"{Path.GetFileName(sceneFile.SourcePath)}\"");
+            text.AppendLine($"scene_sha256 = \"{sceneFile.ContentHash}\"");
+        }
         text.AppendLine($"projection = \"{camera.Kind.ToString().ToLowerInvariant()}\"");
         text.AppendLine($"size = \"{camera.Width}x{camera.Height}\"");
         if (camera.Kind == ProjectionKind.Domemaster)

@@ -35,8 +35,12 @@ public sealed class GridImager
     private Vec3 _camera;
     private ViewCap _view;
 
+    /// <summary>Lines traced per work item; each item writes its own list, joined in item order, so the output never depends on scheduling.</summary>
+    private const int LinesPerChunk = 32;
+    private readonly List<List<PixelSegment>> _chunks = [];
+
     /// <summary>Appends the pixel segments of <paramref name="grid"/> seen from <paramref name="ship"/>.</summary>
-    public void Trace(SpaceGrid grid, ShipState ship, Rotation cameraToShip, ViewCap view, Projection projection, List<PixelSegment> output)
+    public void Trace(SpaceGrid grid, ShipState ship, Rotation cameraToShip, ViewCap view, Projection projection, List<PixelSegment> output, ParallelOptions parallel)
     {
         _grid = grid;
         _view = view;
@@ -44,17 +48,29 @@ public sealed class GridImager
         _sight = RestFrameSight.Of(grid.Origin, grid.Frame, ship, cameraToShip);
         _shader = SurfaceShader.OfHdrValue(grid.Temperature, grid.Brightness);
         _camera = _sight.CameraEvent.Space;
-        foreach ((Vec3 from, Vec3 to) in grid.LinesAround(_camera))
+        (Vec3 From, Vec3 To)[] lines = grid.LinesAround(_camera).ToArray();
+        int chunkCount = (lines.Length + LinesPerChunk - 1) / LinesPerChunk;
+        while (_chunks.Count < chunkCount) _chunks.Add([]);
+        Parallel.For(0, chunkCount, parallel, chunk =>
         {
-            // Start from pieces of one spacing so no bend is skipped between coarse samples.
-            int pieces = Math.Max(2, (int)Math.Ceiling((to - from).Length / grid.Spacing));
-            Sample previous = See(from);
-            for (int k = 1; k <= pieces; k++)
-            {
-                Sample next = See(from + (double)k / pieces * (to - from));
-                Refine(previous, next, 0, output);
-                previous = next;
-            }
+            List<PixelSegment> segments = _chunks[chunk];
+            segments.Clear();
+            for (int line = chunk * LinesPerChunk; line < Math.Min(lines.Length, (chunk + 1) * LinesPerChunk); line++)
+                TraceLine(lines[line].From, lines[line].To, segments);
+        });
+        for (int chunk = 0; chunk < chunkCount; chunk++) output.AddRange(_chunks[chunk]);
+    }
+
+    private void TraceLine(Vec3 from, Vec3 to, List<PixelSegment> output)
+    {
+        // Start from pieces of one spacing so no bend is skipped between coarse samples.
+        int pieces = Math.Max(2, (int)Math.Ceiling((to - from).Length / _grid.Spacing));
+        Sample previous = See(from);
+        for (int k = 1; k <= pieces; k++)
+        {
+            Sample next = See(from + (double)k / pieces * (to - from));
+            Refine(previous, next, 0, output);
+            previous = next;
         }
     }
 

@@ -22,6 +22,7 @@ public sealed class NearFieldLayer : IFrameLayer
     private readonly BodyImager[] _imagers;
     private readonly GridImager _gridImager = new();
     private readonly List<SkyTriangle> _triangles = [];
+    private readonly List<SkyTriangle>[] _bodyTriangles;
     private readonly List<PixelSegment> _segments = [];
     private readonly BodyView[] _views;
     private SkyRasterizer? _rasterizer;
@@ -30,10 +31,12 @@ public sealed class NearFieldLayer : IFrameLayer
     {
         _imagers = bodies.Select(b => new BodyImager(b)).ToArray();
         _views = _imagers.Select(i => new BodyView(i.Body, null)).ToArray();
+        _bodyTriangles = _imagers.Select(_ => new List<SkyTriangle>()).ToArray();
         Grid = grid;
     }
 
-    public SpaceGrid? Grid { get; }
+    /// <summary>The grid drawn with the bodies; may be swapped between frames (a show fades it by its brightness).</summary>
+    public SpaceGrid? Grid { get; set; }
 
     /// <summary>Each body as the last frame saw it, in the order given.</summary>
     public IReadOnlyList<BodyView> LastViews => _views;
@@ -67,18 +70,23 @@ public sealed class NearFieldLayer : IFrameLayer
     public void Draw(HdrFrame hdr, Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
     {
         SkyRasterizer rasterizer = RasterizerFor(projection);
-        Look(ship, cameraToShip);
-        _triangles.Clear();
         double pixelsPerRadian = PixelScaleMargin / Math.Sqrt(projection.ReferencePixelSolidAngle);
-        for (int i = 0; i < _imagers.Length; i++)
+        // Each body is imaged by one thread into its own list; the lists are joined in body order.
+        Parallel.For(0, _imagers.Length, parallel, i =>
+        {
+            _bodyTriangles[i].Clear();
+            _views[i] = new BodyView(_imagers[i].Body, _imagers[i].Look(ship, cameraToShip));
             if (_views[i].Appearance is not null)
-                _imagers[i].AppendTriangles(_triangles, pixelsPerRadian, projection.ReferencePixelSolidAngle);
+                _imagers[i].AppendTriangles(_bodyTriangles[i], pixelsPerRadian, projection.ReferencePixelSolidAngle);
+        });
+        _triangles.Clear();
+        foreach (List<SkyTriangle> triangles in _bodyTriangles) _triangles.AddRange(triangles);
         rasterizer.Draw(System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_triangles), parallel);
         rasterizer.CompositeOver(hdr.Red, hdr.Green, hdr.Blue);
         if (Grid is not null)
         {
             _segments.Clear();
-            _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, projection, _segments);
+            _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, projection, _segments, parallel);
             LineDrawer.Draw(_segments, hdr, rasterizer, parallel);
         }
         rasterizer.Clear();

@@ -134,8 +134,9 @@ public sealed class SkyRasterizer
             double plausible = 2 * diameter * pixelsPerRadian + 4;
             if (maxX - minX <= plausible && maxY - minY <= plausible)
             {
-                // Great-circle sides may bow out of the corners' box by a fraction of the diameter; a pixel more covers the ramp.
-                double pad = 0.15 * diameter * pixelsPerRadian + 2;
+                // Great-circle sides bow out of the corners' box by a few percent of their length at most (sides are at most
+                // a quarter radian); one pixel more covers the outline ramp.
+                double pad = 0.05 * diameter * pixelsPerRadian + 1;
                 AddPrepared(t, pixelsPerRadian, [(minX - pad, minY - pad, maxX + pad, maxY + pad)]);
                 return;
             }

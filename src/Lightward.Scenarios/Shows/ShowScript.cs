@@ -1,3 +1,4 @@
+using Lightward.Scenarios.Model;
 using Lightward.Spacetime;
 
 namespace Lightward.Scenarios.Shows;
@@ -13,6 +14,9 @@ public sealed record ShowScript(string SourcePath, string Title, double Length, 
 
     /// <summary>Half a light-year: a few lines pass each second of a typical burn at γ ≈ 10 and 10⁶ ship seconds per show second.</summary>
     public const double DefaultGridSpacing = 0.5 * Units.LightYear;
+
+    /// <summary>The scenario whose bodies (and grid, when it has one) the show draws, or null for open space.</summary>
+    public Scenario? Scene { get; init; }
 
     /// <summary>A name safe for file names (frame files, soundtrack files): the show file's name without <c>.show.toml</c>.</summary>
     public string DeliveryName
@@ -61,6 +65,8 @@ public sealed record ShowCue(int Number, string Label, double At, double Transit
     /// <summary>Picture level 0 (black) … 1 (full).</summary>
     public double? Fade { get; init; }
     public bool? Grid { get; init; }
+    /// <summary>The scene's bodies shown or hidden (shown unless a cue hides them).</summary>
+    public bool? Bodies { get; init; }
     public bool? Instruments { get; init; }
     /// <summary>In a live show the clock stops at this cue until the operator says go.</summary>
     public bool Hold { get; init; }

@@ -1,5 +1,6 @@
 using System.Globalization;
 using Lightward.Scenarios.Files;
+using Lightward.Scenarios.Model;
 using Lightward.Spacetime;
 
 namespace Lightward.Scenarios.Shows;
@@ -47,6 +48,7 @@ public static class ShowScriptReader
         double? length = top.Quantity("length", Dimension.Time, v => v > 0 && v <= 24 * 3600, "a show length from above 0 s to 24 h", required: true);
         Vec3 course = ReadCourse(top.Section("course")) ?? Vec3.UnitX;
         double gridSpacing = top.Quantity("grid_spacing", Dimension.Length, v => v > 0, "a positive length such as \"0.5 ly\"") ?? ShowScript.DefaultGridSpacing;
+        Scenario? scene = ReadScene(top, directory, problems);
         ShowCautions cautions = ReadCautions(top.Section("cautions"));
         IReadOnlyList<TableReader> cueTables = top.Sections("cue", required: true);
         var cues = new List<ShowCue>();
@@ -56,7 +58,27 @@ public static class ShowScriptReader
 
         if (length is not null) CheckCueTimes(cueTables, cues, length.Value);
         if (problems.Count > 0 || title is null || length is null) return null;
-        return new ShowScript(Path.GetFullPath(path), title, length.Value, course, cautions, cues) { GridSpacing = gridSpacing };
+        return new ShowScript(Path.GetFullPath(path), title, length.Value, course, cautions, cues) { GridSpacing = gridSpacing, Scene = scene };
+    }
+
+    /// <summary>The scenario named by <c>scene</c>, relative to the show file; its own problems are reported at their place in it.</summary>
+    private static Scenario? ReadScene(TableReader top, string directory, List<FileProblem> problems)
+    {
+        const string allowed = "a scenario file (.toml) relative to the show file, whose bodies and grid the show draws";
+        string? file = top.String("scene", allowed: allowed);
+        if (file is null) return null;
+        string fullPath = Path.GetFullPath(Path.Combine(directory, file));
+        if (file.EndsWith(Extension, StringComparison.OrdinalIgnoreCase) || file.EndsWith(".plan.toml", StringComparison.OrdinalIgnoreCase))
+        {
+            top.ReportHere("scene", $"\"{file}\" is a show or burn plan, not a scenario", allowed);
+            return null;
+        }
+        if (!File.Exists(fullPath))
+        {
+            top.ReportHere("scene", $"no such file \"{file}\" (looked for {fullPath})", allowed);
+            return null;
+        }
+        return ScenarioFile.Read(fullPath, problems);
     }
 
     /// <summary>The course as ICRS right ascension and declination.</summary>
@@ -117,7 +139,7 @@ public static class ShowScriptReader
         lookTable?.Finish();
         double? fieldOfView = table.Quantity("field_of_view", Dimension.Angle, v => v >= Math.PI / 180 && v <= 170 * Math.PI / 180, "an angle from 1 deg to 170 deg");
         double? fade = ReadFade(table);
-        bool? grid = table.Boolean("grid"), instruments = table.Boolean("instruments");
+        bool? grid = table.Boolean("grid"), bodies = table.Boolean("bodies"), instruments = table.Boolean("instruments");
         bool hold = table.Boolean("hold") ?? false;
         SoundCue? sound = ReadSound(table.Section("sound"), directory);
         string? caption = table.String("caption", allowed: "the caption text, or \"\" to take the caption away");
@@ -127,7 +149,7 @@ public static class ShowScriptReader
         return new ShowCue(number, label, at.Value, transition, easing)
         {
             Rapidity = rapidity, TimeCompression = compression, Look = look, FieldOfView = fieldOfView, Fade = fade,
-            Grid = grid, Instruments = instruments, Hold = hold, Sound = sound, Caption = caption,
+            Grid = grid, Bodies = bodies, Instruments = instruments, Hold = hold, Sound = sound, Caption = caption,
         };
     }
 

@@ -9,7 +9,7 @@ namespace Lightward.Scenarios.Shows;
 /// <param name="Fade">Picture level 0 (black) … 1 (full).</param>
 public readonly record struct ShowMoment(
     double ShowTime, int CueIndex, ShipState Ship, double TimeCompression, Rotation Look, double FieldOfView, double Fade,
-    double GridOpacity, double InstrumentsOpacity, string Caption, double CaptionOpacity)
+    double GridOpacity, double BodiesOpacity, double InstrumentsOpacity, string Caption, double CaptionOpacity)
 {
     /// <summary>Camera axes → home-aligned comoving axes (ship orientation, then the look).</summary>
     public Rotation CameraOrientation => Ship.Frame.Orientation * Look;
@@ -30,6 +30,7 @@ public sealed class ShowTimeline
     private readonly EasedTrack<double> _fieldOfView = new(DefaultFieldOfView, Lerp);
     private readonly EasedTrack<double> _fade = new(1, Lerp);
     private readonly EasedTrack<double> _grid = new(0, Lerp);
+    private readonly EasedTrack<double> _bodies = new(1, Lerp);
     private readonly EasedTrack<double> _instruments = new(0, Lerp);
     private readonly List<ShowCue> _captionCues = [];
     private readonly ShowFlight _flight;
@@ -54,6 +55,7 @@ public sealed class ShowTimeline
             if (cue.FieldOfView is { } fieldOfView) _fieldOfView.MoveTo(at, fieldOfView, easing, transition);
             if (cue.Fade is { } fade) _fade.MoveTo(at, fade, easing, transition);
             if (cue.Grid is { } grid) _grid.MoveTo(at, grid ? 1 : 0, easing, transition);
+            if (cue.Bodies is { } bodies) _bodies.MoveTo(at, bodies ? 1 : 0, easing, transition);
             if (cue.Instruments is { } instruments) _instruments.MoveTo(at, instruments ? 1 : 0, easing, transition);
             if (cue.Caption is not null) _captionCues.Add(cue);
         }
@@ -93,7 +95,7 @@ public sealed class ShowTimeline
         (string caption, double captionOpacity) = CaptionAt(showTime);
         return new ShowMoment(
             showTime, CueIndexAt(showTime), _flight.At(showTime), TimeCompressionAt(showTime), _look.ValueAt(showTime),
-            _fieldOfView.ValueAt(showTime), _fade.ValueAt(showTime), _grid.ValueAt(showTime),
+            _fieldOfView.ValueAt(showTime), _fade.ValueAt(showTime), _grid.ValueAt(showTime), _bodies.ValueAt(showTime),
             _instruments.ValueAt(showTime), caption, captionOpacity);
     }
 

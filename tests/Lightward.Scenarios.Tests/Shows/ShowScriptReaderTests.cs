@@ -119,6 +119,52 @@ public class ShowScriptReaderTests
     }
 
     [Fact]
+    public void A_scene_file_is_read_relative_to_the_show_and_its_bodies_can_be_hidden()
+    {
+        var problems = new List<FileProblem>();
+        ShowScript? script = ShowScriptReader.Parse("""
+            title = "Scene"
+            length = "10 s"
+            scene = "flyby-ember.toml"
+            [[cue]]
+            at = "2 s"
+            transition = "1 s"
+            bodies = false
+            """, Path.Combine(Repository.Scenarios, "scene-test.show.toml"), problems);
+        Assert.Empty(problems);
+        Assert.Equal("Orrin's Ember", Assert.Single(script!.Scene!.Bodies).Name);
+        Assert.False(script.Cues[0].Bodies);
+    }
+
+    [Fact]
+    public void A_missing_or_broken_scene_is_reported_where_it_is()
+    {
+        var (_, missing) = Parse("""
+            title = "Scene"
+            length = "10 s"
+            scene = "no-such-scene.toml"
+            [[cue]]
+            at = "0 s"
+            """);
+        var problem = Assert.Single(missing);
+        Assert.StartsWith("test.show.toml:3:9: scene: no such file \"no-such-scene.toml\"", problem.ToString());
+
+        string folder = Directory.CreateTempSubdirectory("lw-show-scene-").FullName;
+        try
+        {
+            File.WriteAllText(Path.Combine(folder, "broken.toml"), "title = \"Broken\"\n");
+            var problems = new List<FileProblem>();
+            ShowScriptReader.Parse("title = \"S\"\nlength = \"5 s\"\nscene = \"broken.toml\"\n[[cue]]\nat = \"0 s\"\n", Path.Combine(folder, "s.show.toml"), problems);
+            Assert.NotEmpty(problems);
+            Assert.All(problems, p => Assert.EndsWith("broken.toml", p.Location.File));
+        }
+        finally
+        {
+            Directory.Delete(folder, recursive: true);
+        }
+    }
+
+    [Fact]
     public void Shipped_demo_show_is_valid()
     {
         string[] shows = Directory.GetFiles(Repository.Scenarios, "*" + ShowScriptReader.Extension);

@@ -78,6 +78,31 @@ public class ShowTimelineTests
     }
 
     [Fact]
+    public void Bodies_are_shown_until_a_cue_hides_them_and_the_grid_eases()
+    {
+        var timeline = new ShowTimeline(Script(
+            new ShowCue(1, "grid on", 1, 2, Easing.Linear) { Grid = true },
+            new ShowCue(2, "hide", 5, 2, Easing.Linear) { Bodies = false }));
+        Assert.Equal(1, timeline.At(0).BodiesOpacity);
+        Assert.Equal(0.5, timeline.At(2).GridOpacity, 12);
+        Assert.Equal(0.5, timeline.At(6).BodiesOpacity, 12);
+        Assert.Equal(0, timeline.At(8).BodiesOpacity);
+    }
+
+    [Fact]
+    public void The_demo_show_passes_close_by_its_scene_body()
+    {
+        // The demo's own invented setting: the body is placed on the ship's course, so it must pass within a light-minute.
+        ShowScript script = ShowScriptReader.Load(Path.Combine(Repository.Scenarios, "outbound.show.toml"));
+        var timeline = new ShowTimeline(script);
+        Vec3 body = Assert.Single(script.Scene!.Bodies).Path.EventAtHomeTime(0).Space;
+        (double distance, double time) closest = Enumerable.Range(0, 600).Select(i => i / 10.0)
+            .Select(t => ((timeline.At(t).Ship.Position.Space - body).Length, t)).Min();
+        Assert.True(closest.distance < 60, $"closest {closest.distance} ls at {closest.time} s");
+        Assert.InRange(closest.time, 20, 35);
+    }
+
+    [Fact]
     public void A_moment_is_the_same_whichever_order_moments_are_asked_for()
     {
         ShowCue[] cues =
