@@ -95,6 +95,7 @@ public sealed class ShowCommand : Command<ShowCommand.Settings>
         }
         string mode = show.WaitingForGo ? "[yellow]waiting for go[/]" : show.Held ? "[red]hold[/]" : show.Finished ? "end of show" : "[green]running[/]";
         if (show.ManualControl) mode += " · [aqua]manual control[/] (drag in the dome window)";
+        if (live.SoundStatus.Length > 0) mode += $" · sound {Markup.Escape(live.SoundStatus)}";
         string clocks = moment is { } m
             ? $"show {Clock(show.ShowTime)} / {Clock(show.Script.Length)}   ship {Span(m.Ship.ShipTime)}   home {Span(m.Ship.HomeTime)}   rapidity {m.Ship.Velocity.Rapidity:0.000}   x{m.TimeCompression:G3}"
             : $"show {Clock(show.ShowTime)} / {Clock(show.Script.Length)}";

@@ -26,10 +26,13 @@ public static class ShowSoundtrack
         var mixer = new CueMixer(sounds, scene.Channels, writer);
         double secondsPerFrame = (double)frameRate.Denominator / frameRate.Numerator;
         OfflineSoundRenderer.RenderFrames(scene, frameRate, frameCount,
-            frame => scene.SetEngine(Math.Abs(timeline.ProperAccelerationAt(frame * secondsPerFrame)) / Units.G), mixer);
+            frame => scene.SetEngine(EngineLevel(timeline, frame * secondsPerFrame)), mixer);
         writer.Commit();
         return writer.Paths;
     }
+
+    /// <summary>The engine tone's level at a show time: the proper acceleration felt aboard, in g (full at 1 g and above).</summary>
+    public static double EngineLevel(ShowTimeline timeline, double showTime) => Math.Abs(timeline.ProperAccelerationAt(showTime)) / Units.G;
 
     /// <summary>A cue's sound, decoded and spread over the channels once, waiting for its first sample.</summary>
     private sealed record PlacedSound(long StartSample, float[] Interleaved)
