@@ -31,7 +31,8 @@ public sealed class ShowFrameRenderer : IDisposable
     private NearFieldLayer? _gridOnly;
     private readonly SKTypeface _captionFace = BundledFonts.Load(BundledFonts.SansFileName);
     private readonly byte[] _fadeTable = new byte[256];
-    private byte[] _beforeInstruments = [];
+    /// <summary>The picture without what is fading in or out, for cross-fades.</summary>
+    private byte[] _without = [];
 
     /// <param name="sceneNearField">The bodies (and grid, if any) of the show's scene; empty for a show in open space.</param>
     public ShowFrameRenderer(ShowTimeline timeline, Scene scene, NearFieldLayer sceneNearField, ShowRenderSettings settings)
@@ -57,9 +58,7 @@ public sealed class ShowFrameRenderer : IDisposable
         if (manualLook is { } look) moment = moment with { Look = look };
         Camera camera = _settings.Camera.Kind == ProjectionKind.Perspective ? _settings.Camera with { FieldOfView = moment.FieldOfView } : _settings.Camera;
         if (camera.Width != image.Width || camera.Height != image.Height) camera = camera with { Width = image.Width, Height = image.Height };
-        _renderer.Layers.Clear();
-        if (NearFieldFor(moment) is { } nearField) _renderer.Layers.Add(nearField);
-        _renderer.Render(_scene, new Observer(moment.Ship, moment.Look), camera, image);
+        DrawSky(moment, camera, image);
         if (moment.InstrumentsOpacity > 0) DrawInstruments(moment, image);
         if (moment.CaptionOpacity > 0 && moment.Caption.Length > 0) DrawCaption(moment.Caption, moment.CaptionOpacity, image);
         if (moment.Fade < 1) Fade(moment.Fade, image);
@@ -68,15 +67,44 @@ public sealed class ShowFrameRenderer : IDisposable
     }
 
     /// <summary>
-    /// The grid fades by its own brightness (light added to the HDR frame, so the fade is even). Bodies are opaque
-    /// surfaces that cannot be blended after tone mapping, so they come and go at the middle of their transition.
+    /// The sky with the grid and bodies. While either is coming or going, the pictures without and with it are
+    /// cross-faded after tone mapping: scaling its light instead would be undone by the automatic exposure, and solid
+    /// bodies cannot be blended in the HDR frame.
     /// </summary>
-    private NearFieldLayer? NearFieldFor(ShowMoment moment)
+    private void DrawSky(ShowMoment moment, Camera camera, RgbaImage image)
     {
-        SpaceGrid? grid = moment.GridOpacity > 0 ? _grid with { Brightness = _grid.Brightness * moment.GridOpacity } : null;
-        NearFieldLayer? layer = moment.BodiesOpacity >= 0.5 ? _sceneNearField : grid is null ? null : _gridOnly ??= new NearFieldLayer([], null);
-        if (layer is not null) layer.Grid = grid;
-        return layer;
+        var observer = new Observer(moment.Ship, moment.Look);
+        double[] changing = new[] { moment.GridOpacity, moment.BodiesOpacity }.Where(o => o is > 0 and < 1).ToArray();
+        if (changing.Length > 0)
+        {
+            DrawSky(observer, camera, image, moment.GridOpacity >= 1, moment.BodiesOpacity >= 1);
+            _without = CopyOf(image, _without);
+        }
+        DrawSky(observer, camera, image, moment.GridOpacity > 0, moment.BodiesOpacity > 0);
+        if (changing.Length > 0) CrossFade(_without, image.Pixels, (float)changing.Average());
+    }
+
+    private void DrawSky(Observer observer, Camera camera, RgbaImage image, bool grid, bool bodies)
+    {
+        NearFieldLayer? layer = bodies ? _sceneNearField : grid ? _gridOnly ??= new NearFieldLayer([], null) : null;
+        if (layer is not null) layer.Grid = grid ? _grid : null;
+        _renderer.Layers.Clear();
+        if (layer is not null) _renderer.Layers.Add(layer);
+        _renderer.Render(_scene, observer, camera, image);
+    }
+
+    private static byte[] CopyOf(RgbaImage image, byte[] buffer)
+    {
+        if (buffer.Length != image.Pixels.Length) buffer = new byte[image.Pixels.Length];
+        image.Pixels.CopyTo(buffer, 0);
+        return buffer;
+    }
+
+    /// <summary><paramref name="with"/> becomes the mix of the two pictures, <paramref name="weight"/> 0 (without) … 1 (with).</summary>
+    private static void CrossFade(byte[] without, byte[] with, float weight)
+    {
+        for (int i = 0; i < with.Length; i++)
+            with[i] = (byte)(without[i] + (with[i] - without[i]) * weight + 0.5f);
     }
 
     private void DrawInstruments(ShowMoment moment, RgbaImage image)
@@ -94,13 +122,9 @@ public sealed class ShowFrameRenderer : IDisposable
             return;
         }
         // Eased in or out: blend the drawn instruments over the picture without them.
-        if (_beforeInstruments.Length != image.Pixels.Length) _beforeInstruments = new byte[image.Pixels.Length];
-        image.Pixels.CopyTo(_beforeInstruments, 0);
+        _without = CopyOf(image, _without);
         _instruments.Draw(image.Pixels, image.Width, image.Height, readings, trace);
-        float opacity = (float)moment.InstrumentsOpacity;
-        byte[] pixels = image.Pixels;
-        for (int i = 0; i < pixels.Length; i++)
-            pixels[i] = (byte)(_beforeInstruments[i] + (pixels[i] - _beforeInstruments[i]) * opacity + 0.5f);
+        CrossFade(_without, image.Pixels, (float)moment.InstrumentsOpacity);
     }
 
     /// <summary>
