@@ -28,7 +28,8 @@ public static class SpeakerPanner
         if (gains.Length < channels) throw new ArgumentException($"need {channels} gains", nameof(gains));
         gains.Clear();
         Vec3 unit = direction.NormalizedOr(Vec3.UnitZ);
-        double horizontal = Math.Sqrt(unit.X * unit.X + unit.Z * unit.Z);
+        // Clamped: for a level unit vector the root can round to 1 + 2⁻⁵², and the vertical share below must not go negative.
+        double horizontal = Math.Min(1, Math.Sqrt(unit.X * unit.X + unit.Z * unit.Z));
         double azimuthDegrees = horizontal > 0 ? Math.Atan2(unit.X, unit.Z) * (180 / Math.PI) : 0;
         Span<double> power = stackalloc double[channels];
         int ringSize;

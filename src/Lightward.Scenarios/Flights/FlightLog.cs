@@ -108,7 +108,7 @@ public sealed record FlightLog(
 /// <summary>
 /// Appends a flight's requested controls to a flight log as it flies. Steps with the same controls and duration
 /// are gathered into one record; whatever is gathered is written and flushed at least once a second of wall time
-/// (from a timer, so a paused live flight is flushed too), so a crash loses at most the last second.
+/// (from a thread of its own, so a paused live flight is flushed too), so a crash loses at most the last second.
 /// Thread-safe: a live window host may record from its loop thread while the timer flushes.
 /// </summary>
 public sealed class FlightRecorder : IDisposable
@@ -116,7 +116,9 @@ public sealed class FlightRecorder : IDisposable
     private readonly object _gate = new();
     private readonly FileStream _stream;
     private readonly BinaryWriter _writer;
-    private readonly Timer _timer;
+    // A thread of its own, not a pool timer: a busy thread pool must not delay the once-a-second flush.
+    private readonly Thread _flusher;
+    private readonly ManualResetEventSlim _stopFlushing = new();
     private StepRun? _pending;
     private bool _closed;
 
@@ -140,7 +142,8 @@ public sealed class FlightRecorder : IDisposable
         WriteText(scenario.SourcePath);
         WriteText(pilot);
         _writer.Flush();
-        _timer = new Timer(_ => Flush(), null, TimeSpan.FromSeconds(1), TimeSpan.FromSeconds(1));
+        _flusher = new Thread(FlushEverySecond) { IsBackground = true, Name = "flight log flush" };
+        _flusher.Start();
     }
 
     public string Path { get; }
@@ -174,6 +177,11 @@ public sealed class FlightRecorder : IDisposable
             WritePending();
             _writer.Write(FlightLogFormat.RunRecord);
         }
+    }
+
+    private void FlushEverySecond()
+    {
+        while (!_stopFlushing.Wait(TimeSpan.FromSeconds(1))) Flush();
     }
 
     /// <summary>Writes what is gathered and hands it to the operating system.</summary>
@@ -214,7 +222,7 @@ public sealed class FlightRecorder : IDisposable
     private void Close()
     {
         _closed = true;
-        _timer.Dispose();
+        _stopFlushing.Set();
         _writer.Flush();
         _writer.Dispose();
     }
