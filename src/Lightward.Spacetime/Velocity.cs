@@ -94,7 +94,9 @@ public readonly record struct Velocity
         double w = Math.Sqrt(1 + acrossSquared);
         // The component along n is w·(cosh ψ, sinh ψ): boosting along n just adds ψ to φ.
         double sinhPsi = alongV / w;
-        double summedRapidity = Rapidity + Math.Asinh(sinhPsi);
+        // The summed rapidity itself is needed only when braking or for a collinear result; asinh is the costly call.
+        bool needsSummedRapidity = sinhPsi < 0 || acrossSquared == 0;
+        double summedRapidity = needsSummedRapidity ? Rapidity + Math.Asinh(sinhPsi) : double.NaN;
         // sinh(φ + ψ) by the addition theorem while both terms are non-negative (speeding up), which saves a call;
         // when braking the terms could cancel, so the summed rapidity is used instead.
         double summedSinh = sinhPsi >= 0
