@@ -84,4 +84,18 @@ public class FlyCommandTests
         Assert.Equal(24_000 * 4, BitConverter.ToInt32(wav, dataChunk + 4));
         Directory.Delete(folder, recursive: true);
     }
+
+    [Fact]
+    public void A_scenario_flight_is_logged_and_replays_bit_identically()
+    {
+        string folder = Directory.CreateTempSubdirectory("lightward-fly-log-").FullName;
+        string scenario = Path.Combine(CliRunner.RepositoryRoot, "scenarios", "dock-tessaly.toml");
+        var flight = CliRunner.RunIn(folder, "fly", scenario, "--headless", "--frames", "20", "--size", "160x90",
+            "--screenshot", "shot.png", "--record", "live.flightlog");
+        Assert.True(flight.ExitCode == 0, flight.Stderr);
+        var replay = CliRunner.RunIn(folder, "replay", "live.flightlog");
+        Assert.True(replay.ExitCode == 0, replay.Stderr);
+        Assert.Contains("(equal to the recorded one)", replay.Stdout);
+        Directory.Delete(folder, recursive: true);
+    }
 }

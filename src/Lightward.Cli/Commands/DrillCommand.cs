@@ -87,7 +87,7 @@ public sealed class DrillCommand : Command<DrillSettings>
         IPilot pilot = settings.Plan is { } planPath ? new PlanPilot(PlanFile.Load(planPath, scenario.Ship)) : new Autopilot();
         string pilotName = settings.Plan is { } p ? $"burn plan {Path.GetFileName(p)}" : "autopilot";
         string? logPath = settings.NoRecord ? null
-            : settings.Record ?? $"{scenario.Name}-{DateTime.UtcNow.ToString("yyyyMMdd'T'HHmmss'Z'", CultureInfo.InvariantCulture)}{FlightLogFormat.Extension}";
+            : settings.Record ?? FlightRecorder.DefaultPath(scenario);
         Flight reference = Drill.Fly(scenario, new Autopilot());
         double referenceScore = FlightReport.From(reference).Score;
         Flight flight;

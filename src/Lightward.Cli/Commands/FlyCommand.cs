@@ -7,6 +7,7 @@ using Lightward.Host.Simulation;
 using Lightward.Optics;
 using Lightward.Rendering;
 using Lightward.Scenarios.Files;
+using Lightward.Scenarios.Flights;
 using Lightward.Scenarios.Model;
 using Lightward.Spacetime;
 using Spectre.Console.Cli;
@@ -70,6 +71,14 @@ public sealed class FlySettings : CommandSettings
     [CommandOption("--wav <FILE>")]
     [Description("Record the flight's sound to a 16-bit stereo WAV file.")]
     public string? Wav { get; init; }
+
+    [CommandOption("--record <FILE>")]
+    [Description("Flight log of a scenario flight, for `lightward replay` and `drill --logs` (default: <scenario>-<UTC time>.flightlog).")]
+    public string? Record { get; init; }
+
+    [CommandOption("--no-record")]
+    [Description("Fly a scenario without writing a flight log.")]
+    public bool NoRecord { get; init; }
 
     [CommandOption("--keys")]
     [Description("Print the default key bindings (a key file to copy and edit) and exit.")]
@@ -158,7 +167,8 @@ public sealed class FlyCommand : Command<FlySettings>
         // Check every flag and file before the slow work (loading the sky) starts.
         (int width, int height) = settings.FrameSize();
         Scenario? scenario = settings.Scenario is null ? null : ScenarioFile.Load(settings.Scenario);
-        FlightSetup setup = scenario is null ? FlightSetup.Demo : ScenarioSetup.From(scenario);
+        if (settings.Record is not null && (settings.NoRecord || scenario is null))
+            throw new UserInputException("--record: only for a scenario flight, and not with --no-record");
         InputBindings bindings = settings.KeysFile is null ? KeyFile.Defaults : KeyFile.Load(settings.KeysFile);
         RunLimits limits = settings.Limits();
         ViewMode view = settings.StartView();
@@ -168,6 +178,10 @@ public sealed class FlyCommand : Command<FlySettings>
         string? stateOut = FlySettings.OutputPath(settings.StateOut, "--state-out", ".json");
         string? wav = FlySettings.OutputPath(settings.Wav, "--wav", ".wav");
         Scene scene = scenario is null ? new Scene(StarCatalog.LoadHipparcos()) : ScenarioSetup.SceneOf(scenario);
+        // Every scenario flight is logged, as drills are, so an instructor can replay it.
+        string? logPath = scenario is null || settings.NoRecord ? null : settings.Record ?? FlightRecorder.DefaultPath(scenario);
+        using FlightRecorder? recorder = logPath is null ? null : FlightRecorder.Create(logPath, scenario!, "live");
+        FlightSetup setup = scenario is null ? FlightSetup.Demo : ScenarioSetup.From(scenario, recorder);
 
         var options = new FlightRunOptions(setup, scene, bindings, width, height, limits, view, fieldOfView,
             Instruments: !settings.NoInstruments, InstrumentsOnDome: settings.DomeInstruments, ForceHeadless: settings.Headless,
@@ -176,6 +190,11 @@ public sealed class FlyCommand : Command<FlySettings>
             Layers: scenario is null ? [] : [ViewNearField.FromScenario(scenario)]);
         FlightOutcome outcome = FlightRun.Execute(options, note => Console.Error.WriteLine($"lightward: {note}"));
         ShipState ship = outcome.Ship;
+        if (recorder is not null && setup.Flight is { } flight)
+        {
+            recorder.Finish(flight.StateHash(), flight.Verdict?.Success ?? false);
+            Console.Error.WriteLine($"lightward: flight log written to {logPath} (replay with `lightward replay {logPath}`)");
+        }
         Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
             $"flew {outcome.Frames} frames ({(outcome.Windowed ? "window" : "headless")}): ship clock {ship.ShipTime:0.###} s, home clock {ship.HomeTime:0.###} s, rapidity {ship.Velocity.Rapidity:G6}, beta {ship.Velocity.Beta:G6}, task: {outcome.TaskStatus}"));
         return ErrorReporting.Success;

@@ -1,3 +1,4 @@
+using Lightward.Scenarios.Flights;
 using Lightward.Spacetime;
 
 namespace Lightward.Host.Simulation;
@@ -24,10 +25,16 @@ public sealed class FlightLoop
     public const int MaxTicksPerFrame = 8;
 
     private readonly FlightIntegrator _integrator;
+    private readonly Flight? _flight;
     private double _accumulator;
 
-    public FlightLoop(ShipState start, double tickRate = DefaultTickRate)
+    /// <param name="flight">
+    /// A scenario's flight: every tick is flown through it, so the ship's limits, the task's verdict and the flight log
+    /// are exactly those of a drill, and `lightward replay` re-flies the log bit for bit. Null for free flight.
+    /// </param>
+    public FlightLoop(ShipState start, double tickRate = DefaultTickRate, Flight? flight = null)
     {
+        _flight = flight;
         if (!(tickRate > 0) || !double.IsFinite(tickRate)) throw new ArgumentOutOfRangeException(nameof(tickRate), "tick rate must be positive");
         TickRate = tickRate;
         _integrator = new FlightIntegrator(1 / tickRate);
@@ -84,8 +91,17 @@ public sealed class FlightLoop
         double properStep = Compression * TickSeconds;
         Controls controls = source.ControlsFor(Current, properStep, Compression);
         Previous = Current;
-        Current = properStep == _integrator.StepDuration ? _integrator.Step(Current, controls) : _integrator.Step(Current, controls, properStep);
-        RapiditySpent += controls.ProperAcceleration.Length * properStep;
+        if (_flight is not null)
+        {
+            _flight.Step(controls, properStep);
+            Current = _flight.Ship;
+            RapiditySpent = _flight.RapidityUsed;
+        }
+        else
+        {
+            Current = properStep == _integrator.StepDuration ? _integrator.Step(Current, controls) : _integrator.Step(Current, controls, properStep);
+            RapiditySpent += controls.ProperAcceleration.Length * properStep;
+        }
         LastControls = controls;
         Ticks++;
     }

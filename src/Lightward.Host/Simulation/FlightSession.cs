@@ -18,7 +18,7 @@ public sealed class FlightSession
     public FlightSession(FlightSetup setup, double tickRate = FlightLoop.DefaultTickRate, bool instrumentsOnDome = false)
     {
         _setup = setup;
-        Loop = new FlightLoop(setup.Start, tickRate);
+        Loop = new FlightLoop(setup.Start, tickRate, setup.Flight);
         Pilot = new Pilot(setup.Capabilities, setup.Target);
         InstrumentsOnDome = instrumentsOnDome;
         Trace.Record(setup.Start.Position);

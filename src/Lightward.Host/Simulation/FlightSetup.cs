@@ -1,4 +1,5 @@
 using Lightward.Rendering.Instruments;
+using Lightward.Scenarios.Flights;
 using Lightward.Spacetime;
 
 namespace Lightward.Host.Simulation;
@@ -21,9 +22,13 @@ public interface ITaskWatch
     void Observe(in ShipState before, in ShipState after);
 }
 
-/// <summary>What a flight starts from: the ship, its abilities, the target, beacons, and how the task is judged.</summary>
+/// <summary>
+/// What a flight starts from: the ship, its abilities, the target, beacons, and how the task is judged; for a scenario,
+/// also the judged (and possibly recorded) <see cref="Flight"/> the physics steps through.
+/// </summary>
 public sealed record FlightSetup(
-    string Name, ShipState Start, ShipCapabilities Capabilities, TargetTrack? Target, IReadOnlyList<Beacon> Beacons, ITaskWatch? Task)
+    string Name, ShipState Start, ShipCapabilities Capabilities, TargetTrack? Target, IReadOnlyList<Beacon> Beacons, ITaskWatch? Task,
+    Flight? Flight = null)
 {
     /// <summary>
     /// The built-in demo: at rest at home, free flight, nose toward RA 0° Dec 0° (home +X) with the ship's up axis

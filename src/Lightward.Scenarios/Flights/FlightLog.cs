@@ -148,6 +148,10 @@ public sealed class FlightRecorder : IDisposable
 
     public string Path { get; }
 
+    /// <summary>The log name a flight gets when the user names none: the scenario and the UTC time, in the current folder.</summary>
+    public static string DefaultPath(Scenario scenario) =>
+        $"{scenario.Name}-{DateTime.UtcNow.ToString("yyyyMMdd'T'HHmmss'Z'", System.Globalization.CultureInfo.InvariantCulture)}{FlightLogFormat.Extension}";
+
     /// <summary>Starts a new log at <paramref name="path"/> (which must not exist yet) for a flight of <paramref name="scenario"/>.</summary>
     /// <param name="pilot">Who flies: "autopilot", "plan &lt;file&gt;", "live", for the reader's information.</param>
     public static FlightRecorder Create(string path, Scenario scenario, string pilot) => new(path, scenario, pilot);
