@@ -10,18 +10,23 @@ namespace Lightward.Host;
 
 /// <summary>How the window opens: its frame size and title, and optionally full screen on a chosen monitor.</summary>
 /// <param name="Monitor">0-based monitor number for full screen (a dome projector is often monitor 1).</param>
-public sealed record WindowOptions(int Width, int Height, string Title, bool Fullscreen = false, int Monitor = 0);
+/// <param name="VerticalSync">Wait for the display's refresh when showing a frame. A second window (the show's
+/// operator window) turns it off, or each window's wait would halve the other's frame rate.</param>
+public sealed record WindowOptions(int Width, int Height, string Title, bool Fullscreen = false, int Monitor = 0, bool VerticalSync = true);
 
 /// <summary>
 /// A GLFW window: the loop clock is GLFW's timer, input comes from the keyboard, the mouse (drag to look) and the
-/// first connected gamepad, and each frame is shown as an OpenGL texture.
+/// first connected gamepad, and each frame is shown as an OpenGL texture. Several windows may be open at once, each
+/// with its own OpenGL context (a live show's dome output and operator window); GLFW starts with the first and stops
+/// with the last.
 /// </summary>
 public sealed unsafe class WindowHost : IFrameHost
 {
     /// <summary>The one line printed when a window cannot open: what to install.</summary>
     public const string InstallHint = "apt-get install libglfw3 libgl1 libgl1-mesa-dri";
 
-    private static WindowHost? _active;
+    /// <summary>The open windows by GLFW handle, so that key events reach the window they happened in.</summary>
+    private static readonly Dictionary<nint, WindowHost> Open = [];
     private readonly nint _window;
     private readonly GL _gl;
     private readonly TexturePresenter _presenter;
@@ -41,7 +46,7 @@ public sealed unsafe class WindowHost : IFrameHost
         _bindings = bindings;
         _gl = GL.GetApi(Glfw.ProcAddress);
         _presenter = new TexturePresenter(_gl, width, height);
-        _active = this;
+        Open[window] = this;
         Glfw.SetKeyCallback(window, (nint)(delegate* unmanaged[Cdecl]<nint, int, int, int, int, void>)&OnKey);
     }
 
@@ -58,7 +63,7 @@ public sealed unsafe class WindowHost : IFrameHost
             return false;
         }
         if (!Glfw.TryLoad(out problem)) return false;
-        if (Glfw.Init() != Glfw.True)
+        if (Open.Count == 0 && Glfw.Init() != Glfw.True)
         {
             problem = "GLFW could not start: " + Glfw.LastError("unknown reason");
             return false;
@@ -76,7 +81,7 @@ public sealed unsafe class WindowHost : IFrameHost
             nint* monitors = Glfw.GetMonitors(&count);
             if (options.Monitor < 0 || options.Monitor >= count)
             {
-                Glfw.Terminate();
+                TerminateUnlessOpen();
                 throw new UserInputException($"--monitor: there is no monitor {options.Monitor}; this display has {count}, numbered 0 to {count - 1}");
             }
             monitor = monitors[options.Monitor];
@@ -90,11 +95,11 @@ public sealed unsafe class WindowHost : IFrameHost
         if (window == 0)
         {
             problem = "no OpenGL 3.3 window: " + Glfw.LastError("unknown reason");
-            Glfw.Terminate();
+            TerminateUnlessOpen();
             return false;
         }
         Glfw.MakeContextCurrent(window);
-        Glfw.SwapInterval(1);
+        Glfw.SwapInterval(options.VerticalSync ? 1 : 0);
         host = new WindowHost(window, width, height, bindings);
         return true;
     }
@@ -119,7 +124,7 @@ public sealed unsafe class WindowHost : IFrameHost
         }
         ReadGamepad(input);
         foreach (PilotAction action in Enum.GetValues<PilotAction>()) input.SetHeld(action, _keyHeld[(int)action] || _buttonHeld[(int)action]);
-        ReadMouseLook(input);
+        AddLookDrag(input);
     }
 
     private void ReadGamepad(PilotInput input)
@@ -147,7 +152,11 @@ public sealed unsafe class WindowHost : IFrameHost
         }
     }
 
-    private void ReadMouseLook(PilotInput input)
+    /// <summary>
+    /// Adds the view drag with the look button held in this window since the last call: part of <see cref="PollInput"/>,
+    /// and on its own for a window that drives only the view (the show's operator window in manual control).
+    /// </summary>
+    public void AddLookDrag(PilotInput input)
     {
         double x, y;
         Glfw.GetCursorPos(_window, &x, &y);
@@ -163,8 +172,21 @@ public sealed unsafe class WindowHost : IFrameHost
         _cursorY = y;
     }
 
+    /// <summary>
+    /// Keys pressed in this window since the last call, as GLFW key codes, for a window that reads its keys itself
+    /// instead of through <see cref="PollInput"/> (the show's operator window). Any window's poll brings them in.
+    /// </summary>
+    public IReadOnlyList<int> TakeKeyPresses()
+    {
+        var presses = new List<int>();
+        while (_keyEvents.TryDequeue(out var keyEvent))
+            if (keyEvent.Down) presses.Add(keyEvent.Key);
+        return presses;
+    }
+
     public void Present(ReadOnlySpan<byte> rgba)
     {
+        Glfw.MakeContextCurrent(_window);
         int framebufferWidth, framebufferHeight;
         Glfw.GetFramebufferSize(_window, &framebufferWidth, &framebufferHeight);
         if (framebufferWidth <= 0 || framebufferHeight <= 0) return;
@@ -186,15 +208,22 @@ public sealed unsafe class WindowHost : IFrameHost
     private static void OnKey(nint window, int key, int scancode, int action, int modifiers)
     {
         // Repeats (action 2) carry no news: the key is already held.
-        if (_active is { } host && window == host._window && action is Glfw.Press or Glfw.Release) host._keyEvents.Enqueue((key, action == Glfw.Press));
+        if (Open.TryGetValue(window, out WindowHost? host) && action is Glfw.Press or Glfw.Release) host._keyEvents.Enqueue((key, action == Glfw.Press));
     }
 
     public void Dispose()
     {
+        Glfw.MakeContextCurrent(_window);
         _presenter.Dispose();
         _gl.Dispose();
         Glfw.DestroyWindow(_window);
-        Glfw.Terminate();
-        if (_active == this) _active = null;
+        Open.Remove(_window);
+        TerminateUnlessOpen();
+    }
+
+    /// <summary>Stops GLFW once no window of ours is open (stopping it closes every window).</summary>
+    private static void TerminateUnlessOpen()
+    {
+        if (Open.Count == 0) Glfw.Terminate();
     }
 }

@@ -8,7 +8,7 @@ public class RenderShowTests : IDisposable
     private readonly string _folder = Directory.CreateTempSubdirectory("lightward-render-show-").FullName;
 
     // A tiny invented show: a second and a half with a fade, a turn and a caption, so that neighbouring frames differ.
-    private const string TinyShow = """
+    internal const string TinyShow = """
         title = "Tiny"
         length = "1.5 s"
         [cautions]
@@ -36,14 +36,14 @@ public class RenderShowTests : IDisposable
         return path;
     }
 
-    private static string[] Render(string show, string output, params string[] extra) =>
+    internal static string[] Render(string show, string output, params string[] extra) =>
         ["render-show", show, "--size", "16", "--fps", "24", "--threads", "1", "--out", output, .. extra];
 
     /// <summary>Every file under <paramref name="root"/> (hidden ones too) by relative path, with its bytes.</summary>
     private static SortedDictionary<string, byte[]> Contents(string root) =>
         new(Directory.GetFiles(root, "*", SearchOption.AllDirectories).ToDictionary(f => Path.GetRelativePath(root, f), File.ReadAllBytes), StringComparer.Ordinal);
 
-    private static void AssertSameFolders(string expected, string actual)
+    internal static void AssertSameFolders(string expected, string actual)
     {
         var a = Contents(expected);
         var b = Contents(actual);

@@ -112,7 +112,7 @@ public sealed class RenderShowCommand : Command<RenderShowCommand.Settings>
             SafetyReport report = job.CheckCautions();
             Console.Write(report.ToText());
             Console.WriteLine($"cautions report: {job.Layout.CautionsPath}");
-            Console.WriteLine(ShowPreview.Write(job.Layout, renderSettings.FrameRate, ShowSoundtrack.LayoutFor(script) == SpeakerLayout.Stereo));
+            Console.WriteLine(ShowPreview.Write(job.Layout, renderSettings.FrameRate, ShowSoundtrack.LayoutFor(script)));
         }
         else Console.WriteLine($"delivery complete; cautions report: {job.Layout.CautionsPath}");
         return ErrorReporting.Success;

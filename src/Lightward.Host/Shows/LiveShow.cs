@@ -7,15 +7,28 @@ using Lightward.Spacetime;
 
 namespace Lightward.Host.Shows;
 
-/// <summary>What the operator can do; the operator console maps keys onto these.</summary>
+/// <summary>What the operator can do; the operator's console maps its keys onto these.</summary>
 public enum OperatorCommand { Go, Hold, Back, ManualControl, End }
+
+/// <summary>Where the operator runs the show from: commands and the manual-control view drag in, the show's state out.</summary>
+public interface IOperatorConsole
+{
+    /// <summary>The operator's next command, or null when none is waiting (called until null after every poll of the dome).</summary>
+    OperatorCommand? NextCommand();
+
+    /// <summary>Adds the operator's view drag since the last call (turns the camera in manual control).</summary>
+    void AddLookDrag(PilotInput input);
+
+    /// <summary>Shows the operator the show's state after a frame: the moment on the dome and its picture.</summary>
+    void Show(ShowOperator show, ShowMoment moment, RgbaImage dome, string soundStatus);
+}
 
 /// <summary>
 /// Runs a show live: the <see cref="ShowOperator"/> clock follows the host's clock, each loop renders the show at the
-/// current show time onto the dome output host, and in manual control the view drag of the dome window (mouse or
-/// stick, through the pilot's look input) turns the camera instead of the cues. The engine tone plays live through
-/// the sound device, following the show's velocity profile as in the rendered soundtrack (cue sound files are in the
-/// rendered soundtrack only).
+/// current show time onto the dome output host and shows the state on the operator's console, and in manual control
+/// the view drag (in the console or the dome window, or the stick) turns the camera instead of the cues. The engine
+/// tone plays live through the sound device, following the ship's thrust (velocity profile or burn plan) as in the
+/// rendered soundtrack (cue sound files are in the rendered soundtrack only).
 /// </summary>
 public sealed class LiveShow(ShowScript script, Scene scene, NearFieldLayer sceneNearField, ShowRenderSettings settings)
 {
@@ -26,9 +39,7 @@ public sealed class LiveShow(ShowScript script, Scene scene, NearFieldLayer scen
     /// <summary>Where the live sound goes ("pulseaudio", "alsa" or "silent"), and why when silent; empty before the show runs.</summary>
     public string SoundStatus { get; private set; } = "";
 
-    /// <param name="nextCommand">The operator's next command, or null when none is waiting.</param>
-    /// <param name="showStatus">Called after each frame with the moment and the picture shown, for the operator console.</param>
-    public void Run(IFrameHost dome, Func<OperatorCommand?> nextCommand, Action<ShowMoment, RgbaImage> showStatus, CancellationToken cancellationToken)
+    public void Run(IFrameHost dome, IOperatorConsole console, CancellationToken cancellationToken)
     {
         using var renderer = new ShowFrameRenderer(_timeline, scene, sceneNearField, settings);
         var image = new RgbaImage(dome.Width, dome.Height);
@@ -43,7 +54,8 @@ public sealed class LiveShow(ShowScript script, Scene scene, NearFieldLayer scen
         {
             input.BeginFrame();
             dome.PollInput(input);
-            while (nextCommand() is { } command)
+            console.AddLookDrag(input);
+            while (console.NextCommand() is { } command)
             {
                 switch (command)
                 {
@@ -65,7 +77,7 @@ public sealed class LiveShow(ShowScript script, Scene scene, NearFieldLayer scen
             sound.SetEngine(ShowSoundtrack.EngineLevel(_timeline, Operator.ShowTime));
             ShowMoment moment = renderer.RenderAt(Operator.ShowTime, image, Operator.ManualControl ? manualLook : null);
             dome.Present(image.Pixels);
-            showStatus(moment, image);
+            console.Show(Operator, moment, image, SoundStatus);
         }
     }
 }

@@ -112,10 +112,10 @@ public sealed class ShowFrameRenderer : IDisposable
         var trace = new WorldlineTrace();
         foreach (ShipState sample in _timeline.WorldlineUpTo(moment.ShowTime)) trace.Record(sample.Position);
         trace.Record(moment.Ship.Position);
-        double acceleration = _timeline.ProperAccelerationAt(moment.ShowTime);
-        var controls = new Controls(new Vec3(0, 0, acceleration), Vec3.Zero);
+        Controls controls = _timeline.ControlsAt(moment.ShowTime);
         string compression = FormattableString.Invariant($"x{moment.TimeCompression:G3}");
-        var readings = FlightReadings.Of(moment.Ship, null, acceleration != 0 ? 1 : 0, controls, Math.Abs(_timeline.RapidityToGo(moment.ShowTime)), compression, false, "", "");
+        double throttle = controls.ProperAcceleration == Vec3.Zero ? 0 : 1;
+        var readings = FlightReadings.Of(moment.Ship, null, throttle, controls, _timeline.RapidityToGo(moment.ShowTime), compression, false, "", "");
         if (moment.InstrumentsOpacity >= 1)
         {
             _instruments.Draw(image.Pixels, image.Width, image.Height, readings, trace);

@@ -5,6 +5,7 @@ using Lightward.Audio;
 using Lightward.Rendering;
 using Lightward.Rendering.NearField;
 using Lightward.Rendering.Safety;
+using Lightward.Scenarios.Plans;
 using Lightward.Scenarios.Shows;
 using Lightward.Spacetime;
 
@@ -168,6 +169,9 @@ public sealed class ShowRenderJob
             text.AppendLine($"scene = \"{Path.GetFileName(sceneFile.SourcePath)}\"");
             text.AppendLine($"scene_sha256 = \"{sceneFile.ContentHash}\"");
         }
+        string[] plans = Script.Cues.Select(cue => cue.BurnPlan).OfType<BurnPlan>().DistinctBy(plan => plan.SourcePath)
+            .Select(plan => $"\"{Path.GetFileName(plan.SourcePath)}\" = \"{plan.ContentHash}\"").ToArray();
+        if (plans.Length > 0) text.AppendLine($"burn_plans_sha256 = {{ {string.Join(", ", plans)} }}");
         text.AppendLine($"projection = \"{camera.Kind.ToString().ToLowerInvariant()}\"");
         text.AppendLine($"size = \"{camera.Width}x{camera.Height}\"");
         if (camera.Kind == ProjectionKind.Domemaster)

@@ -6,9 +6,9 @@ using NAudio.Wave;
 namespace Lightward.Host.Shows;
 
 /// <summary>
-/// The show's soundtrack, sample-aligned to its frames: the ship's engine (from the velocity profile) and every cue's
-/// sound file, each starting on the first sample of the frame its cue falls on. Stereo, or 5.1 as six mono files when
-/// any cue places a sound on the dome.
+/// The show's soundtrack, sample-aligned to its frames: the ship's engine (its thrust on the velocity profile or a burn
+/// plan) and every cue's sound file, each starting on the first sample of the frame its cue falls on. Stereo, or 5.1 as
+/// six mono files when any cue places a sound on the dome.
 /// </summary>
 public static class ShowSoundtrack
 {
@@ -32,7 +32,7 @@ public static class ShowSoundtrack
     }
 
     /// <summary>The engine tone's level at a show time: the proper acceleration felt aboard, in g (full at 1 g and above).</summary>
-    public static double EngineLevel(ShowTimeline timeline, double showTime) => Math.Abs(timeline.ProperAccelerationAt(showTime)) / Units.G;
+    public static double EngineLevel(ShowTimeline timeline, double showTime) => timeline.ControlsAt(showTime).ProperAcceleration.Length / Units.G;
 
     /// <summary>A cue's sound, decoded and spread over the channels once, waiting for its first sample.</summary>
     private sealed record PlacedSound(long StartSample, float[] Interleaved)

@@ -1,4 +1,5 @@
 using Lightward.Scenarios.Model;
+using Lightward.Scenarios.Plans;
 using Lightward.Spacetime;
 
 namespace Lightward.Scenarios.Shows;
@@ -57,6 +58,11 @@ public sealed record ShowCue(int Number, string Label, double At, double Transit
 {
     /// <summary>Target rapidity of the ship along its course (the velocity profile).</summary>
     public double? Rapidity { get; init; }
+    /// <summary>
+    /// A burn plan the ship flies from this cue on (thrust and turns in ship axes, segment by segment over ship time),
+    /// instead of the velocity profile.
+    /// </summary>
+    public BurnPlan? BurnPlan { get; init; }
     /// <summary>Ship proper seconds per second of show time.</summary>
     public double? TimeCompression { get; init; }
     public LookDirection? Look { get; init; }

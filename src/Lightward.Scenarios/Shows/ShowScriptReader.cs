@@ -1,6 +1,7 @@
 using System.Globalization;
 using Lightward.Scenarios.Files;
 using Lightward.Scenarios.Model;
+using Lightward.Scenarios.Plans;
 using Lightward.Spacetime;
 
 namespace Lightward.Scenarios.Shows;
@@ -52,11 +53,13 @@ public static class ShowScriptReader
         ShowCautions cautions = ReadCautions(top.Section("cautions"));
         IReadOnlyList<TableReader> cueTables = top.Sections("cue", required: true);
         var cues = new List<ShowCue>();
+        var plans = new Dictionary<string, BurnPlan?>(StringComparer.Ordinal);
         for (int i = 0; i < cueTables.Count; i++)
-            if (ReadCue(cueTables[i], i + 1, directory) is { } cue) cues.Add(cue);
+            if (ReadCue(cueTables[i], i + 1, directory, plans) is { } cue) cues.Add(cue);
         top.Finish();
 
         if (length is not null) CheckCueTimes(cueTables, cues, length.Value);
+        CheckFlightCues(cueTables, cues);
         if (problems.Count > 0 || title is null || length is null) return null;
         return new ShowScript(Path.GetFullPath(path), title, length.Value, course, cautions, cues) { GridSpacing = gridSpacing, Scene = scene };
     }
@@ -125,7 +128,7 @@ public static class ShowScriptReader
         return value;
     }
 
-    private static ShowCue? ReadCue(TableReader table, int number, string directory)
+    private static ShowCue? ReadCue(TableReader table, int number, string directory, Dictionary<string, BurnPlan?> plans)
     {
         double? at = table.Quantity("at", Dimension.Time, v => v >= 0, "a show time from 0 s", required: true);
         string label = table.String("label", allowed: "a short name for the operator") ?? $"Cue {number}";
@@ -133,6 +136,7 @@ public static class ShowScriptReader
         Easing easing = table.Choice("easing", EasingCurves.ByName.Keys.ToArray()) is { } name ? EasingCurves.ByName[name] : Easing.Smooth;
 
         double? rapidity = ReadRapidity(table);
+        BurnPlan? plan = ReadBurnPlan(table, directory, plans);
         double? compression = table.Number("time_compression", v => v > 0 && v <= MaxTimeCompression, $"ship seconds per show second, above 0 and up to {MaxTimeCompression:0e0}");
         TableReader? lookTable = table.Section("look");
         LookDirection? look = lookTable is null ? null : ReadDirection(lookTable);
@@ -148,7 +152,7 @@ public static class ShowScriptReader
         if (at is null) return null;
         return new ShowCue(number, label, at.Value, transition, easing)
         {
-            Rapidity = rapidity, TimeCompression = compression, Look = look, FieldOfView = fieldOfView, Fade = fade,
+            Rapidity = rapidity, BurnPlan = plan, TimeCompression = compression, Look = look, FieldOfView = fieldOfView, Fade = fade,
             Grid = grid, Bodies = bodies, Instruments = instruments, Hold = hold, Sound = sound, Caption = caption,
         };
     }
@@ -164,6 +168,56 @@ public static class ShowScriptReader
             return null;
         }
         return rapidity ?? (speed is { } beta ? Math.Atanh(beta) : null);
+    }
+
+    /// <summary>
+    /// The burn plan named by <c>burn_plan</c>, relative to the show file; its own problems are reported at their place
+    /// in it, once however many cues name it. The show's ship has no engine or turn limits of a scenario, so the plan
+    /// is read without a ship.
+    /// </summary>
+    private static BurnPlan? ReadBurnPlan(TableReader table, string directory, Dictionary<string, BurnPlan?> plans)
+    {
+        const string allowed = "a burn plan file (.plan.toml) relative to the show file";
+        string? file = table.String("burn_plan", allowed: allowed);
+        if (file is null) return null;
+        string fullPath = Path.GetFullPath(Path.Combine(directory, file));
+        if (file.EndsWith(Extension, StringComparison.OrdinalIgnoreCase))
+        {
+            table.ReportHere("burn_plan", $"\"{file}\" is a show, not a burn plan", allowed);
+            return null;
+        }
+        if (!File.Exists(fullPath))
+        {
+            table.ReportHere("burn_plan", $"no such file \"{file}\" (looked for {fullPath})", allowed);
+            return null;
+        }
+        if (plans.TryGetValue(fullPath, out BurnPlan? known)) return known;
+        // The plan's problems are sorted by their place in the plan file, then listed after the show's.
+        var planProblems = new List<FileProblem>();
+        BurnPlan? plan = plans[fullPath] = PlanFile.Read(fullPath, null, planProblems);
+        table.Problems.AddRange(planProblems);
+        return plan;
+    }
+
+    /// <summary>
+    /// From a <c>burn_plan</c> cue on the plan flies the ship, so the velocity profile (<c>speed</c>, <c>rapidity</c>)
+    /// may only come before the first one.
+    /// </summary>
+    private static void CheckFlightCues(IReadOnlyList<TableReader> tables, List<ShowCue> cues)
+    {
+        ShowCue? plan = null;
+        foreach (ShowCue cue in cues)
+        {
+            TableReader table = tables[cue.Number - 1];
+            bool fliesPlan = table.Has("burn_plan");
+            string? profileKey = table.Has("speed") ? "speed" : table.Has("rapidity") ? "rapidity" : null;
+            if (profileKey is not null && fliesPlan)
+                table.ReportHere(profileKey, "given together with burn_plan", "either a burn plan or a velocity profile in one cue");
+            else if (profileKey is not null && plan is not null)
+                table.ReportHere(profileKey, $"comes after the burn plan of cue {plan.Number} at {Seconds(plan.At)}, which flies the ship from then on",
+                    "speed and rapidity cues before the first burn_plan cue");
+            if (fliesPlan) plan ??= cue;
+        }
     }
 
     /// <summary>Azimuth and elevation keys of a table (a missing one is 0), placing a view or a sound on the dome.</summary>

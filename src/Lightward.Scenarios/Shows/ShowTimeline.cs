@@ -60,21 +60,29 @@ public sealed class ShowTimeline
             if (cue.Caption is not null) _captionCues.Add(cue);
         }
         var start = new ShipState(new CompensatedEvent(default(FourVector)), new LorentzFrame(Velocity.Rest, ShowFlight.OrientationAlong(script.Course)), 0);
-        _flight = new ShowFlight(start, script.Length, _rapidity.ValueAt, TimeCompressionAt);
+        ShowPlanCue[] plans = script.Cues.Where(cue => cue.BurnPlan is not null)
+            .Select(cue => new ShowPlanCue(cue.At, cue.BurnPlan!, FastestCompressionFrom(cue.At))).ToArray();
+        // The ship on a plan turns no faster than the dome may: at one ship second per show second that is the rotation limit.
+        _flight = new ShowFlight(start, script.Length, _rapidity.ValueAt, TimeCompressionAt, plans, maxRate);
     }
 
     public double TimeCompressionAt(double showTime) => Math.Exp(_logCompression.ValueAt(showTime));
 
-    /// <summary>Proper acceleration felt aboard at <paramref name="showTime"/>, 1/s: dφ/dτ = (dφ/dt) / κ, by a central difference.</summary>
-    public double ProperAccelerationAt(double showTime)
-    {
-        const double half = 0.5 / ShowFlight.StepsPerSecond;
-        double before = Math.Max(0, showTime - half), after = showTime + half;
-        return (_rapidity.ValueAt(after) - _rapidity.ValueAt(before)) / ((after - before) * TimeCompressionAt(showTime));
-    }
+    /// <summary>
+    /// The most ship seconds per show second from <paramref name="showTime"/> on: the compression then, or a target of a
+    /// move still running or still to come (an eased move never leaves the range between its ends).
+    /// </summary>
+    private double FastestCompressionFrom(double showTime) => Script.Cues
+        .Where(cue => cue.TimeCompression is not null && cue.At + cue.Transition >= showTime)
+        .Select(cue => cue.TimeCompression!.Value)
+        .Append(TimeCompressionAt(showTime))
+        .Max();
 
-    /// <summary>Rapidity still to gain (or shed) to reach the show's last speed target from <paramref name="showTime"/>.</summary>
-    public double RapidityToGo(double showTime) => _rapidity.ValueAt(double.PositiveInfinity) - _rapidity.ValueAt(showTime);
+    /// <summary>What the engine and thrusters do at <paramref name="showTime"/> (ship axes): a plan's controls, or the velocity profile's thrust along the nose.</summary>
+    public Controls ControlsAt(double showTime) => _flight.ControlsAt(showTime);
+
+    /// <summary>Rapidity still to gain or shed from <paramref name="showTime"/>: what a plan still burns, or the way to the last speed target.</summary>
+    public double RapidityToGo(double showTime) => _flight.RapidityToGo(showTime);
 
     /// <summary>The ship at every whole second of show time so far (for drawing the worldline behind it).</summary>
     public IEnumerable<ShipState> WorldlineUpTo(double showTime) => _flight.WholeSecondsUpTo(showTime);

@@ -1,4 +1,5 @@
 using Lightward.Audio;
+using Lightward.Host.Input;
 using Lightward.Host.Shows;
 using Lightward.Optics;
 using Lightward.Rendering;
@@ -24,13 +25,22 @@ public class LiveShowTests
         var live = new LiveShow(Script(), new Scene(StarCatalog.Procedural(500, 3)), new NearFieldLayer([], null),
             new ShowRenderSettings(camera, FrameRate.Named["60"], false, false, Threads: 1));
         var host = new HeadlessHost(24, 24, 60);
-        int frames = 0;
-        live.Run(host, () => frames >= 40 ? OperatorCommand.End : null, (_, _) => frames++, CancellationToken.None);
+        var console = new CountingConsole(40);
+        live.Run(host, console, CancellationToken.None);
 
         // 40 frames at 60 frames/s is 0.67 s of host time, but the hold at 0.25 s stops the show clock there.
-        Assert.Equal(40, frames);
+        Assert.Equal(40, console.Frames);
         Assert.Equal(0.25, live.Operator.ShowTime, 9);
         Assert.True(live.Operator.WaitingForGo);
         Assert.NotEqual("", live.SoundStatus);
+    }
+
+    /// <summary>An operator who watches a number of frames, then ends the show.</summary>
+    private sealed class CountingConsole(int framesToWatch) : IOperatorConsole
+    {
+        public int Frames { get; private set; }
+        public OperatorCommand? NextCommand() => Frames >= framesToWatch ? OperatorCommand.End : null;
+        public void AddLookDrag(PilotInput input) { }
+        public void Show(ShowOperator show, ShowMoment moment, RgbaImage dome, string soundStatus) => Frames++;
     }
 }
