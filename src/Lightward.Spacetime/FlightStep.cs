@@ -11,10 +11,11 @@ public sealed class FlightStep
 {
     public Controls Controls { get; }
     public double Duration { get; }
-    /// <summary>Proper velocity at the end of the step, in start-of-step ship axes.</summary>
-    public Vec3 EndProperVelocity { get; }
-    /// <summary>Rotation part of E: E = B(EndProperVelocity) · EndRotation.</summary>
-    public Rotation EndRotation { get; }
+    /// <summary>
+    /// E in polar form, E = B(end velocity) · end rotation: the ship's frame at the end of the step relative to its
+    /// frame at the start, with the velocity's sinh and cosh worked out here once rather than at every step.
+    /// </summary>
+    public LorentzFrame EndFrame { get; }
     /// <summary>Event at the end of the step relative to its start, in start-of-step ship coordinates.</summary>
     public FourVector Displacement { get; }
 
@@ -25,7 +26,7 @@ public sealed class FlightStep
         Controls = controls;
         Duration = duration;
 
-        (EndProperVelocity, EndRotation, Displacement) = controls.AttitudeRate == Vec3.Zero
+        (EndFrame, Displacement) = controls.AttitudeRate == Vec3.Zero
             ? PureBoost(controls.ProperAcceleration, duration)
             : General(controls, duration);
     }
@@ -34,18 +35,17 @@ public sealed class FlightStep
     /// Thrust without turning, the common case: hyperbolic motion in closed form, u = sinh(aτ) â,
     /// t = sinh(aτ)/a, x = 2 sinh²(aτ/2)/a (cosh − 1 without cancellation); no series, no allocation.
     /// </summary>
-    private static (Vec3, Rotation, FourVector) PureBoost(Vec3 acceleration, double duration)
+    private static (LorentzFrame, FourVector) PureBoost(Vec3 acceleration, double duration)
     {
         double magnitude = acceleration.Length;
-        if (magnitude == 0) return (Vec3.Zero, Rotation.Identity, new FourVector(duration, 0, 0, 0));
+        if (magnitude == 0) return (LorentzFrame.Identity, new FourVector(duration, 0, 0, 0));
         Vec3 along = acceleration / magnitude;
-        double rapidity = magnitude * duration;
-        double halfSinh = Math.Sinh(rapidity / 2);
-        double sinh = Math.Sinh(rapidity);
-        return (sinh * along, Rotation.Identity, new FourVector(sinh / magnitude, along * (2 * halfSinh * halfSinh / magnitude)));
+        var end = new Velocity(magnitude * duration, along);
+        double halfSinh = Math.Sinh(end.Rapidity / 2);
+        return (new LorentzFrame(end, Rotation.Identity), new FourVector(end.ProperSpeed / magnitude, along * (2 * halfSinh * halfSinh / magnitude)));
     }
 
-    private static (Vec3, Rotation, FourVector) General(Controls controls, double duration)
+    private static (LorentzFrame, FourVector) General(Controls controls, double duration)
     {
         double[] generator = Generator(controls, duration);
         (double[] exponential, double[] displacement) = ExponentialAndIntegral(generator, duration);
@@ -60,7 +60,7 @@ public sealed class FlightStep
             FourVector unboosted = endVelocity.BoostFromHome(image);
             rotation[0, column] = unboosted.X; rotation[1, column] = unboosted.Y; rotation[2, column] = unboosted.Z;
         }
-        return (endU, Rotation.FromMatrix(rotation), new FourVector(displacement[0], displacement[1], displacement[2], displacement[3]));
+        return (new LorentzFrame(endVelocity, Rotation.FromMatrix(rotation)), new FourVector(displacement[0], displacement[1], displacement[2], displacement[3]));
     }
 
     /// <summary>dτ·G as a row-major 4×4 matrix: dΛ/dτ = Λ G with G = [[0, aᵀ], [a, [ω]×]].</summary>

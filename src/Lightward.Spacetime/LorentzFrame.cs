@@ -1,3 +1,5 @@
+using System.Runtime.CompilerServices;
+
 namespace Lightward.Spacetime;
 
 /// <summary>
@@ -24,10 +26,22 @@ public readonly record struct LorentzFrame(Velocity Velocity, Rotation Orientati
     public Vec3 AxisInComoving(Vec3 ownAxis) => Orientation.Rotate(ownAxis);
 
     /// <summary>this ∘ other: first <paramref name="other"/>, then this.</summary>
-    public LorentzFrame Compose(LorentzFrame other)
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public LorentzFrame Compose(in LorentzFrame other)
     {
-        (Velocity velocity, Rotation wigner) = Velocity.Compose(Orientation.Rotate(other.Velocity.ProperVelocity));
-        return new LorentzFrame(velocity, (wigner * Orientation * other.Orientation).Normalized());
+        Velocity velocity = Velocity;
+        Rotation orientation = Orientation;
+        bool turned = false;
+        Velocity boost = other.Velocity;
+        if (boost.ProperSpeed != 0)
+        {
+            Rotation wigner;
+            (velocity, wigner) = Velocity.Compose(orientation.Rotate(boost.ProperVelocity), boost.GammaMinusOne);
+            if (!wigner.IsIdentity) (orientation, turned) = (wigner * orientation, true);
+        }
+        if (!other.Orientation.IsIdentity) (orientation, turned) = (orientation * other.Orientation, true);
+        // Renormalise what was multiplied, or rounding would walk the orientation off the unit sphere.
+        return new LorentzFrame(velocity, turned ? orientation.Normalized() : orientation);
     }
 
     public LorentzFrame Inverse

@@ -35,10 +35,18 @@ public readonly record struct Rotation(double W, double X, double Y, double Z)
         return new Rotation(1 + dot, c.X, c.Y, c.Z).Normalized();
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public Rotation Normalized()
     {
         double inverseNorm = 1 / Math.Sqrt(W * W + X * X + Y * Y + Z * Z);
         return new Rotation(W * inverseNorm, X * inverseNorm, Y * inverseNorm, Z * inverseNorm);
+    }
+
+    /// <summary>Exactly the identity (composing with it changes nothing, so it can be skipped).</summary>
+    public bool IsIdentity
+    {
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        get => W == 1 && X == 0 && Y == 0 && Z == 0;
     }
 
     public Rotation Inverse => new(W, -X, -Y, -Z);

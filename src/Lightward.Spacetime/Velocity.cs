@@ -1,3 +1,5 @@
+using System.Runtime.CompilerServices;
+
 namespace Lightward.Spacetime;
 
 /// <summary>
@@ -87,41 +89,76 @@ public readonly record struct Velocity
     public (Velocity Result, Rotation Wigner) Compose(Vec3 v)
     {
         if (v.X == 0 && v.Y == 0 && v.Z == 0) return (this, Rotation.Identity); // coasting
+        double squared = v.LengthSquared;
+        (Velocity result, Rotation wigner) = Compose(v, squared / (1 + Math.Sqrt(1 + squared)));
+        return (result, wigner.Normalized());
+    }
+
+    /// <summary>
+    /// <see cref="Compose(Vec3)"/> for a non-zero <paramref name="v"/> whose γ − 1 the caller already knows, with the
+    /// Wigner quaternion left unnormalised (callers normalise the orientation it multiplies anyway). It is exactly
+    /// <see cref="Rotation.Identity"/> when the boosts are collinear.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal (Velocity Result, Rotation Wigner) Compose(Vec3 v, double gammaVMinusOne)
+    {
         Vec3 n = Direction;
         double alongV = Vec3.Dot(n, v);
         Vec3 across = v - alongV * n;
         double acrossSquared = across.LengthSquared;
-        double w = Math.Sqrt(1 + acrossSquared);
-        // The component along n is w·(cosh ψ, sinh ψ): boosting along n just adds ψ to φ.
-        double sinhPsi = alongV / w;
-        // The summed rapidity itself is needed only when braking or for a collinear result; asinh is the costly call.
-        bool needsSummedRapidity = sinhPsi < 0 || acrossSquared == 0;
-        double summedRapidity = needsSummedRapidity ? Rapidity + Math.Asinh(sinhPsi) : double.NaN;
-        // sinh(φ + ψ) by the addition theorem while both terms are non-negative (speeding up), which saves a call;
-        // when braking the terms could cancel, so the summed rapidity is used instead.
-        double summedSinh = sinhPsi >= 0
-            ? _sinh * Math.Sqrt(1 + sinhPsi * sinhPsi) + (1 + _coshMinusOne) * sinhPsi
-            : Math.Sinh(summedRapidity);
-        Velocity result;
-        if (acrossSquared == 0)
-        {
-            // Collinear: the summed rapidity is the answer, exactly (no round trip through asinh).
-            result = summedRapidity >= 0 ? new Velocity(summedRapidity, n, summedSinh) : new Velocity(-summedRapidity, -n, -summedSinh);
-        }
-        else
-        {
-            double resultAlong = w * summedSinh;
-            double resultProperSpeed = Math.Sqrt(resultAlong * resultAlong + acrossSquared);
-            result = FromProperSpeed(resultProperSpeed, (1 / resultProperSpeed) * (resultAlong * n + across));
-        }
+        bool collinear = acrossSquared == 0;
+        double gamma = 1 + _coshMinusOne;
+        // B(this) applied to v's four-velocity (γ_v, v): the part along n becomes γ_v sinh φ + cosh φ (n·v).
+        double alongChange = _sinh * gammaVMinusOne + gamma * alongV;
+        // When braking hard, possibly through rest, the sums below would cancel; rapidities are added along n instead.
+        if (alongChange < -0.5 * _sinh) return BrakeHard(alongV, across, acrossSquared, v, gammaVMinusOne);
 
-        // Thomas–Wigner rotation: angle ε with tan(ε/2) = |u×v| / ((1+γu)(1+γv) + u·v), about the axis v×u.
-        // Dividing through by (1+γu) leaves only tanh(φ/2) = sinh φ/(1 + cosh φ), so nothing overflows.
+        // Speeding up, or slowing by less than half: the sums below cancel by at most a factor 3, keeping full precision.
+        double resultAlong = _sinh + alongChange;
+        double properSpeed = collinear ? resultAlong : Math.Sqrt(resultAlong * resultAlong + acrossSquared);
+        Vec3 direction = collinear ? n : (1 / properSpeed) * (resultAlong * n + across);
+        // The rapidity grows by log(1 + x), x = e^(φ'−φ) − 1 = (Δcosh + Δsinh) / e^φ, with Δsinh = (u'² − u²)/(u' + u):
+        // both changes come from the step itself, so nothing cancels even at γ ≈ 1e10. log(1 + x) = 2 atanh(x/(2 + x)),
+        // and for an ordinary step a short series of that replaces asinh.
+        double coshChange = gamma * gammaVMinusOne + _sinh * alongV;
+        double speedSum = properSpeed + _sinh;
+        double scaledGrowth = coshChange * speedSum + alongChange * (resultAlong + _sinh) + acrossSquared; // x (γ + u)(u' + u)
+        double halfRatio = scaledGrowth / (2 * (gamma + _sinh) * speedSum + scaledGrowth); // x/(2 + x)
+        // (Above a proper speed of 1e100 the scaled sums could overflow.)
+        double rapidity = properSpeed < 1e100 && Math.Abs(halfRatio) <= HyperbolicMath.AtanhSeriesLimit
+            ? Rapidity + 2 * HyperbolicMath.AtanhSeries(halfRatio)
+            : Math.Asinh(properSpeed);
+        var result = new Velocity(rapidity, direction, properSpeed);
+        return collinear ? (result, Rotation.Identity) : (result, Wigner(v, gammaVMinusOne, alongV));
+    }
+
+    /// <summary>
+    /// <see cref="Compose(Vec3, double)"/> when the boost takes away more than half the speed along the motion:
+    /// the component of v along n is w·(cosh ψ, sinh ψ), w = √(1 + |across|²), so boosting along n just adds ψ to φ.
+    /// </summary>
+    private (Velocity Result, Rotation Wigner) BrakeHard(double alongV, Vec3 across, double acrossSquared, Vec3 v, double gammaVMinusOne)
+    {
+        Vec3 n = Direction;
+        double w = Math.Sqrt(1 + acrossSquared);
+        double summedRapidity = Rapidity + Math.Asinh(alongV / w);
+        double summedSinh = Math.Sinh(summedRapidity);
+        // Collinear: the summed rapidity is the answer, exactly (no round trip through asinh), and no rotation.
+        if (acrossSquared == 0)
+            return (summedRapidity >= 0 ? new Velocity(summedRapidity, n, summedSinh) : new Velocity(-summedRapidity, -n, -summedSinh), Rotation.Identity);
+        double resultAlong = w * summedSinh;
+        double properSpeed = Math.Sqrt(resultAlong * resultAlong + acrossSquared);
+        return (FromProperSpeed(properSpeed, (1 / properSpeed) * (resultAlong * n + across)), Wigner(v, gammaVMinusOne, alongV));
+    }
+
+    /// <summary>
+    /// The Thomas–Wigner rotation, unnormalised: angle ε with tan(ε/2) = |u×v| / ((1+γu)(1+γv) + u·v), about the
+    /// axis v×u. Dividing through by (1+γu) leaves only tanh(φ/2) = sinh φ/(1 + cosh φ), so nothing overflows.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private Rotation Wigner(Vec3 v, double gammaVMinusOne, double alongV)
+    {
         double halfTanh = _sinh / (2 + _coshMinusOne);
-        double gammaV = Math.Sqrt(1 + v.LengthSquared);
-        double scalar = 1 + gammaV + halfTanh * alongV;
-        Vec3 axis = halfTanh * Vec3.Cross(v, n);
-        Rotation wigner = new Rotation(scalar, axis.X, axis.Y, axis.Z).Normalized();
-        return (result, wigner);
+        Vec3 axis = halfTanh * Vec3.Cross(v, Direction);
+        return new Rotation(2 + gammaVMinusOne + halfTanh * alongV, axis.X, axis.Y, axis.Z);
     }
 }

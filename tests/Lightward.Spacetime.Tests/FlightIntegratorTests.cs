@@ -1,3 +1,5 @@
+using MathNet.Numerics.LinearAlgebra;
+
 namespace Lightward.Spacetime.Tests;
 
 public class FlightIntegratorTests
@@ -70,10 +72,11 @@ public class FlightIntegratorTests
         var acceleration = new Vec3(0.3, -0.2, 0.9);
         var closedForm = new FlightStep(new Controls(acceleration, Vec3.Zero), 1.7);
         var series = new FlightStep(new Controls(acceleration, new Vec3(0, 0, 1e-300)), 1.7);
-        Assert.True((closedForm.EndProperVelocity - series.EndProperVelocity).Length <= 1e-14 * closedForm.EndProperVelocity.Length);
+        Vec3 closedFormU = closedForm.EndFrame.Velocity.ProperVelocity, seriesU = series.EndFrame.Velocity.ProperVelocity;
+        Assert.True((closedFormU - seriesU).Length <= 1e-14 * closedFormU.Length);
         Assert.True(Math.Abs(closedForm.Displacement.T - series.Displacement.T) <= 1e-14 * closedForm.Displacement.T);
         Assert.True((closedForm.Displacement.Space - series.Displacement.Space).Length <= 1e-14 * closedForm.Displacement.T);
-        Assert.True(series.EndRotation.Angle < 1e-14);
+        Assert.True(series.EndFrame.Orientation.Angle < 1e-14);
     }
 
     [Fact]
@@ -111,5 +114,52 @@ public class FlightIntegratorTests
             double high = n * step, low = Math.FusedMultiplyAdd(n, step, -high);
             Assert.True(Math.Abs(actual - high - low) < Units.Metre, $"off by {(actual - high - low) / Units.Metre:G3} m");
         }
+    }
+
+    /// <summary>The boost of rapidity φ along unit n, [[cosh φ, sinh φ nᵀ], [sinh φ n, I + (cosh φ − 1) n nᵀ]]
+    /// (Jackson, Classical Electrodynamics, 3rd ed., eq. 11.98 with γ = cosh φ, γβ = sinh φ n).</summary>
+    private static Matrix<double> BoostMatrix(double rapidity, Vec3 n)
+    {
+        double[] d = [n.X, n.Y, n.Z];
+        var m = Matrix<double>.Build.Dense(4, 4);
+        m[0, 0] = Math.Cosh(rapidity);
+        for (int i = 0; i < 3; i++)
+        {
+            m[0, i + 1] = m[i + 1, 0] = Math.Sinh(rapidity) * d[i];
+            for (int j = 0; j < 3; j++) m[i + 1, j + 1] = (i == j ? 1 : 0) + (Math.Cosh(rapidity) - 1) * d[i] * d[j];
+        }
+        return m;
+    }
+
+    /// <summary>Rotation by <paramref name="angle"/> about unit k by Rodrigues' formula, I + sin θ K + (1 − cos θ) K².</summary>
+    private static Matrix<double> RotationMatrix(Vec3 k, double angle)
+    {
+        var cross = Matrix<double>.Build.DenseOfArray(new[,] { { 0, -k.Z, k.Y }, { k.Z, 0, -k.X }, { -k.Y, k.X, 0 } });
+        Matrix<double> r = Matrix<double>.Build.DenseIdentity(3) + Math.Sin(angle) * cross + (1 - Math.Cos(angle)) * cross * cross;
+        Matrix<double> m = Matrix<double>.Build.DenseIdentity(4);
+        m.SetSubMatrix(1, 1, r);
+        return m;
+    }
+
+    [Theory]
+    [InlineData(0, 0, 1)] // thrust ahead, about 14° off the motion
+    [InlineData(1, 0, 0)] // across the motion
+    [InlineData(0, 0, -1)] // braking
+    public void Many_small_thrust_steps_land_on_the_boost_matrix_product(double x, double y, double z)
+    {
+        // Constant thrust for τ in ship axes is one boost of rapidity aτ (one-parameter subgroup, and hyperbolic motion,
+        // Rindler 2006, ch. 3), so after 1000 steps the four-velocity is B(u₀) R (cosh aτ, sinh aτ â), multiplied out
+        // here with plain matrices at rapidity 3 where they are well conditioned.
+        Vec3 motion = new(0.6, 0, 0.8), axis = new Vec3(1, 2, 3).NormalizedOr(Vec3.UnitZ), push = new(x, y, z);
+        var start = new ShipState(new CompensatedEvent(default), new LorentzFrame(new Velocity(3, motion), Rotation.FromAxisAngle(axis, 0.7)), 0);
+        var integrator = new FlightIntegrator(1e-3);
+        ShipState ship = start;
+        for (int i = 0; i < 1000; i++) ship = integrator.Step(ship, new Controls(0.5 * push, Vec3.Zero));
+
+        Vector<double> expected = BoostMatrix(3, motion) * RotationMatrix(axis, 0.7) * BoostMatrix(0.5, push) * Vector<double>.Build.Dense([1.0, 0, 0, 0]);
+        double expectedRapidity = Math.Acosh(expected[0]);
+        Assert.True(Math.Abs(ship.Velocity.Rapidity - expectedRapidity) <= 1e-14 * expectedRapidity, $"rapidity {ship.Velocity.Rapidity:R}, expected {expectedRapidity:R}");
+        Vec3 expectedU = new(expected[1], expected[2], expected[3]);
+        Assert.True((ship.Velocity.ProperVelocity - expectedU).Length <= 1e-14 * expected[0], $"u {ship.Velocity.ProperVelocity} vs {expectedU}");
     }
 }

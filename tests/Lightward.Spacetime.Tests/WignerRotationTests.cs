@@ -41,6 +41,8 @@ public class WignerRotationTests
     [InlineData(0.6, 0.0, 0.0, 0.0, 0.8, 0.0)]
     [InlineData(0.5, 0.3, 0.1, -0.2, 0.4, 0.6)]
     [InlineData(0.95, 0.0, 0.1, 0.3, -0.9, 0.2)]
+    [InlineData(0.9, 0.0, 0.0, -0.3, 0.2, 0.0)] // slowing by less than half of the speed along the motion
+    [InlineData(0.9, 0.0, 0.0, -0.8, 0.1, 0.0)] // braking hard: the rapidity-sum branch
     public void Composition_matches_the_polar_decomposition_of_the_matrix_product(double ax, double ay, double az, double bx, double by, double bz)
     {
         Vec3 first = new(ax, ay, az), second = new(bx, by, bz);
@@ -85,5 +87,48 @@ public class WignerRotationTests
         Assert.Equal(Math.Log(2 * Math.Cosh(25) * Math.Cosh(25)), result.Rapidity, 10);
         // cos ε = 2γ₁/(1 + γ₁²) → ε → π/2 as γ₁ → ∞ (Rhodes & Semon 2004 form, from memory).
         Assert.Equal(Math.PI / 2, wigner.Angle, 9);
+    }
+
+    [Theory]
+    [InlineData(0.3, 0.2)]
+    [InlineData(3.0, 1e-5)]
+    [InlineData(3.0, -1e-5)] // slowing gently
+    [InlineData(3.0, -2.5)] // braking hard, through rest
+    [InlineData(25.0, 1e-4)]
+    [InlineData(25.0, -1e-4)]
+    public void Collinear_boosts_add_rapidities_with_no_rotation(double rapidity, double added)
+    {
+        // Along an axis, so that v is parallel to the motion exactly and not merely to rounding.
+        Vec3 n = Vec3.UnitY;
+        (Velocity result, Rotation wigner) = new Velocity(rapidity, n).Compose(Math.Sinh(added) * n);
+        // Collinear boosts form a one-parameter group, so rapidities add and no Thomas–Wigner rotation arises
+        // (Jackson, Classical Electrodynamics, 3rd ed., §11.3 and §11.8).
+        Assert.Equal(Rotation.Identity, wigner);
+        Assert.True(Math.Abs(result.Rapidity - Math.Abs(rapidity + added)) <= 1e-15 * rapidity, $"rapidity {result.Rapidity:R}");
+        // The general, non-collinear path reached by a sideways part far below rounding agrees to rounding.
+        Vec3 aside = 1e-150 * n.AnyPerpendicular();
+        (Velocity general, Rotation generalWigner) = new Velocity(rapidity, n).Compose(Math.Sinh(added) * n + aside);
+        Assert.True(Math.Abs(general.Rapidity - result.Rapidity) <= 1e-14 * result.Rapidity, $"{general.Rapidity:R} vs {result.Rapidity:R}");
+        Assert.True((general.Direction - result.Direction).Length <= 1e-14, $"{general.Direction} vs {result.Direction}");
+        Assert.True(generalWigner.Angle <= 1e-14, $"angle {generalWigner.Angle:R}");
+    }
+
+    [Theory]
+    [InlineData(0)]
+    [InlineData(60)]
+    [InlineData(90)]
+    [InlineData(135)]
+    [InlineData(180)]
+    public void A_small_boost_at_rapidity_25_keeps_the_rapidity_exact(double degrees)
+    {
+        // γ of a composed velocity: γ = γ₁γ₂(1 + β₁·β₂) = cosh φ₁ cosh φ₂ + sinh φ₁ sinh φ₂ cos θ (Jackson, Classical
+        // Electrodynamics, 3rd ed., §11.4, from memory), evaluated here where no term cancels; acosh is well
+        // conditioned at γ ≈ 3.6e10. This is the short-series path of an ordinary integrator step.
+        double phi = 25, step = 1e-4, cos = Math.Cos(degrees * Math.PI / 180), sin = Math.Sin(degrees * Math.PI / 180);
+        (Velocity result, _) = new Velocity(phi, Vec3.UnitX).Compose(Math.Sinh(step) * new Vec3(cos, sin, 0));
+        double gamma = Math.Cosh(phi) * Math.Cosh(step) + Math.Sinh(phi) * Math.Sinh(step) * cos;
+        Assert.True(Math.Abs(result.Rapidity - Math.Acosh(gamma)) <= 1e-14, $"rapidity {result.Rapidity:R}, expected {Math.Acosh(gamma):R}");
+        Assert.Equal(1, result.Gamma / gamma, 14);
+        Assert.Equal(1, Math.Sinh(result.Rapidity) / result.ProperSpeed, 14);
     }
 }
