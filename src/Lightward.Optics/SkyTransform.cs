@@ -8,12 +8,13 @@ using Lightward.Spacetime;
 namespace Lightward.Optics;
 
 /// <summary>
-/// The per-frame star pass: aberration, Doppler shift and beaming of every catalogue star into <see cref="ApparentStars"/>,
+/// The per-frame star pass: aberration, Doppler shift and beaming of the catalogue stars into <see cref="ApparentStars"/>,
 /// in single precision with <see cref="Vector{T}"/> on all cores. It evaluates the same trig-free formulas as
 /// <see cref="Aberration"/>, <see cref="Doppler"/> and <see cref="Beaming"/> (see their derivations), and looks up the
-/// shifted blackbody in <see cref="BlackbodyTable"/>, so the cost does not depend on the speed.
-/// The stars are cut into fixed chunks of <see cref="ChunkLength"/>; each chunk writes only its own slice of the
-/// output, so the result is the same whatever the thread scheduling. One instance serves one caller at a time and
+/// shifted blackbody in <see cref="BlackbodyTable"/>, so the cost per star does not depend on the speed. Given a view
+/// cone, it first drops the sky cells whose stars cannot appear in it, so a narrow view costs only the stars near it.
+/// The kept stars are cut into pieces of at most <see cref="ChunkLength"/>; each piece writes only its own slice of
+/// the output, so the result is the same whatever the thread scheduling. One instance serves one caller at a time and
 /// allocates nothing per star.
 /// </summary>
 public sealed unsafe class SkyTransform
@@ -27,7 +28,10 @@ public sealed unsafe class SkyTransform
     public const double MaxRapidity = 40;
 
     private readonly bool vectorized;
-    private readonly Action<int> transformChunk;
+    private readonly Action<int> transformPiece;
+    private readonly List<Piece> pieces = [];
+    private StarCatalog? trigCatalog;
+    private (double[] Cos, double[] Sin) cellRadiusTrig;
     private readonly BlackbodyTable table = BlackbodyTable.Shared;
     private readonly float tableOrigin = (float)BlackbodyTable.LogTemperatureMin;
     private readonly float tableScale = (float)(1 / BlackbodyTable.LogStep);
@@ -39,20 +43,30 @@ public sealed unsafe class SkyTransform
     public SkyTransform(bool vectorized = true)
     {
         this.vectorized = vectorized;
-        transformChunk = TransformChunk;
+        transformPiece = TransformPiece;
     }
 
-    /// <summary>Fills <paramref name="output"/> with every star of <paramref name="catalog"/> as seen from <paramref name="shipFrame"/>.</summary>
-    public void Apply(StarCatalog catalog, LorentzFrame shipFrame, ApparentStars output)
+    /// <summary>Fills <paramref name="output"/> with every star of <paramref name="catalog"/>, in catalogue order, as seen from <paramref name="shipFrame"/>.</summary>
+    public void Apply(StarCatalog catalog, LorentzFrame shipFrame, ApparentStars output) =>
+        Apply(catalog, shipFrame, output, ViewCone.WholeSky, DefaultParallel);
+
+    private static readonly ParallelOptions DefaultParallel = new();
+
+    /// <summary>
+    /// Fills <paramref name="output"/> with the stars of every sky cell whose apparent image can reach
+    /// <paramref name="view"/>, cell after cell in catalogue order; the cells left out cannot put a star in the view.
+    /// </summary>
+    public void Apply(StarCatalog catalog, LorentzFrame shipFrame, ApparentStars output, ViewCone view, ParallelOptions parallel)
     {
-        output.EnsureCapacity(catalog.Count);
-        output.Count = catalog.Count;
+        frame = new FrameConstants(shipFrame);
+        int count = PlanPieces(catalog, shipFrame, view);
+        output.EnsureCapacity(count);
+        output.Count = count;
         this.catalog = catalog;
         this.output = output;
-        frame = new FrameConstants(shipFrame);
         try
         {
-            Parallel.For(0, (catalog.Count + ChunkLength - 1) / ChunkLength, transformChunk);
+            Parallel.For(0, pieces.Count, parallel, transformPiece);
         }
         finally
         {
@@ -61,15 +75,94 @@ public sealed unsafe class SkyTransform
         }
     }
 
-    private void TransformChunk(int chunk)
+    /// <summary>
+    /// Cuts the visible cells into pieces of at most <see cref="ChunkLength"/> stars (a split that depends only on the
+    /// view, never on the thread count) and returns the number of stars kept.
+    /// <para>
+    /// The visibility test is conservative and exact in its bound: aberration maps the celestial sphere conformally,
+    /// magnifying lengths near a home direction by 1/D (solid angles by 1/D², from the invariance of I_ν/ν³; see
+    /// <see cref="Beaming"/>). A cell's cap of radius r around axis c therefore appears inside a cap of radius
+    /// r / D_min around the apparent axis c′, D_min being the Doppler factor at the cap's point farthest from the
+    /// motion (the geodesic to any star stays in the cap, and its image is at most 1/D_min times as long).
+    /// </para>
+    /// </summary>
+    private int PlanPieces(StarCatalog catalog, LorentzFrame shipFrame, ViewCone view)
     {
-        int start = chunk * ChunkLength;
-        int end = Math.Min(start + ChunkLength, catalog!.Count);
-        int scalarStart = vectorized ? TransformVectors(start, end) : start;
-        for (int i = scalarStart; i < end; i++) TransformStar(i);
+        pieces.Clear();
+        if (view.HalfAngle >= Math.PI)
+        {
+            AddPieces(0, catalog.Count, 0);
+            return catalog.Count;
+        }
+        double rapidity = Math.Min(shipFrame.Velocity.Rapidity, MaxRapidity);
+        Vec3 motion = shipFrame.Velocity.Direction.NormalizedOr(Vec3.UnitZ);
+        var cappedVelocity = new Velocity(rapidity, motion);
+        Vec3 viewAxisComoving = shipFrame.Orientation.Rotate(view.Axis);
+        double expMinus = Math.Exp(-rapidity), sinh = Math.Sinh(rapidity);
+        (double[] cosRadius, double[] sinRadius) = CellRadiusTrig(catalog);
+        int kept = 0, runStart = 0, runLength = 0;
+        for (int cell = 0; cell < StarCatalog.CellCount; cell++)
+        {
+            int first = catalog.CellStart[cell], length = catalog.CellStart[cell + 1] - first;
+            if (length == 0) continue;
+            Vec3 axis = catalog.CellAxis[cell];
+            // cos of the cap's farthest angle from the motion, θ_c + r (capped at π), without inverse trigonometry.
+            double cosCentre = Math.Clamp(Vec3.Dot(axis, motion), -1, 1), sinCentre = Math.Sqrt(1 - cosCentre * cosCentre);
+            double cosFarthest = cosCentre <= -cosRadius[cell] ? -1 : cosCentre * cosRadius[cell] - sinCentre * sinRadius[cell];
+            double dopplerMin = expMinus + sinh * (1 + cosFarthest);
+            double reach = view.HalfAngle + catalog.CellRadius[cell] / dopplerMin;
+            if (reach < Math.PI && Vec3.Dot(Aberration.Apparent(axis, cappedVelocity), viewAxisComoving) < Math.Cos(reach)) continue;
+            if (runLength > 0 && runStart + runLength == first) runLength += length;
+            else
+            {
+                AddPieces(runStart, runLength, kept - runLength);
+                runStart = first;
+                runLength = length;
+            }
+            kept += length;
+        }
+        AddPieces(runStart, runLength, kept - runLength);
+        return kept;
     }
 
-    private void TransformStar(int i)
+    /// <summary>cos and sin of each cell's radius, computed once per catalogue.</summary>
+    private (double[] Cos, double[] Sin) CellRadiusTrig(StarCatalog catalog)
+    {
+        if (trigCatalog != catalog)
+        {
+            cellRadiusTrig = (catalog.CellRadius.Select(Math.Cos).ToArray(), catalog.CellRadius.Select(Math.Sin).ToArray());
+            trigCatalog = catalog;
+        }
+        return cellRadiusTrig;
+    }
+
+    private void AddPieces(int catalogStart, int length, int outputStart)
+    {
+        for (int offset = 0; offset < length; offset += ChunkLength)
+            pieces.Add(new Piece(catalogStart + offset, Math.Min(ChunkLength, length - offset), outputStart + offset));
+    }
+
+    /// <summary>
+    /// One piece: whole vectors, then — when the piece holds at least one vector — the last few stars as one more
+    /// vector overlapping the previous one (those stars get the same values twice), so each star's numbers do not
+    /// depend on where a piece boundary falls. Pieces shorter than a vector go through the scalar formulas, equal to
+    /// the vector ones to single-precision rounding.
+    /// </summary>
+    private void TransformPiece(int index)
+    {
+        Piece piece = pieces[index];
+        int shift = piece.OutputStart - piece.CatalogStart;
+        int start = piece.CatalogStart, end = start + piece.Count;
+        if (!vectorized || piece.Count < Vector<float>.Count)
+        {
+            for (int i = start; i < end; i++) TransformStar(i, i + shift);
+            return;
+        }
+        int next = TransformVectors(start, end, shift);
+        if (next < end) TransformVectors(end - Vector<float>.Count, end, shift);
+    }
+
+    private void TransformStar(int i, int o)
     {
         StarCatalog stars = catalog!;
         ApparentStars result = output!;
@@ -83,20 +176,20 @@ public sealed unsafe class SkyTransform
         float inverse = 1 / (onePlusCos + f.Epsilon * oneMinusCos);
         float across = f.TwoExpMinus * inverse;
         float alongMotion = (onePlusCos - f.Epsilon * oneMinusCos) * inverse - across * cosine;
-        result.X[i] = alongMotion * f.ShipNx + across * (f.M00 * sx + f.M01 * sy + f.M02 * sz);
-        result.Y[i] = alongMotion * f.ShipNy + across * (f.M10 * sx + f.M11 * sy + f.M12 * sz);
-        result.Z[i] = alongMotion * f.ShipNz + across * (f.M20 * sx + f.M21 * sy + f.M22 * sz);
+        result.X[o] = alongMotion * f.ShipNx + across * (f.M00 * sx + f.M01 * sy + f.M02 * sz);
+        result.Y[o] = alongMotion * f.ShipNy + across * (f.M10 * sx + f.M11 * sy + f.M12 * sz);
+        result.Z[o] = alongMotion * f.ShipNz + across * (f.M20 * sx + f.M21 * sy + f.M22 * sz);
 
         float logDoppler = MathF.Log(f.ExpMinus + f.Sinh * onePlusCos);
         float logLuminance = table.Sample(stars.LogTemperature[i] + logDoppler, out float r, out float g, out float b);
         float irradiance = MathF.Exp(stars.LogLuminanceScale[i] + logLuminance - 2 * logDoppler);
-        result.R[i] = irradiance * r;
-        result.G[i] = irradiance * g;
-        result.B[i] = irradiance * b;
+        result.R[o] = irradiance * r;
+        result.G[o] = irradiance * g;
+        result.B[o] = irradiance * b;
     }
 
-    /// <summary>The same formulas as <see cref="TransformStar"/>, a vector of stars at a time; returns where the scalar tail begins.</summary>
-    private int TransformVectors(int start, int end)
+    /// <summary>The same formulas as <see cref="TransformStar"/>, a vector of stars at a time (catalogue index i, output i + <paramref name="shift"/>); returns where the whole vectors end.</summary>
+    private int TransformVectors(int start, int end, int shift)
     {
         StarCatalog stars = catalog!;
         ApparentStars result = output!;
@@ -119,9 +212,9 @@ public sealed unsafe class SkyTransform
             var inverse = Vector<float>.One / (onePlusCos + epsilon * oneMinusCos);
             var across = twoExpMinus * inverse;
             var alongMotion = (onePlusCos - epsilon * oneMinusCos) * inverse - across * cosine;
-            Store(result.X, i, alongMotion * shipNx + across * (m00 * sx + m01 * sy + m02 * sz));
-            Store(result.Y, i, alongMotion * shipNy + across * (m10 * sx + m11 * sy + m12 * sz));
-            Store(result.Z, i, alongMotion * shipNz + across * (m20 * sx + m21 * sy + m22 * sz));
+            Store(result.X, i + shift, alongMotion * shipNx + across * (m00 * sx + m01 * sy + m02 * sz));
+            Store(result.Y, i + shift, alongMotion * shipNy + across * (m10 * sx + m11 * sy + m12 * sz));
+            Store(result.Z, i + shift, alongMotion * shipNz + across * (m20 * sx + m21 * sy + m22 * sz));
 
             var logDoppler = Vector.Log(expMinus + sinh * onePlusCos);
             var position = (Load(stars.LogTemperature, i) + logDoppler - origin) * scale;
@@ -133,9 +226,9 @@ public sealed unsafe class SkyTransform
             var logLuminance = Gather(table.LogLuminance, index) + fraction * Gather(table.LogLuminanceSlope, index);
             var irradiance = Vector.Exp(Load(stars.LogLuminanceScale, i) + logLuminance - two * logDoppler);
             irradiance = Vector.ConditionalSelect(belowTable, Vector<float>.Zero, irradiance);
-            Store(result.R, i, irradiance * (Gather(table.R, index) + colorFraction * Gather(table.RSlope, index)));
-            Store(result.G, i, irradiance * (Gather(table.G, index) + colorFraction * Gather(table.GSlope, index)));
-            Store(result.B, i, irradiance * (Gather(table.B, index) + colorFraction * Gather(table.BSlope, index)));
+            Store(result.R, i + shift, irradiance * (Gather(table.R, index) + colorFraction * Gather(table.RSlope, index)));
+            Store(result.G, i + shift, irradiance * (Gather(table.G, index) + colorFraction * Gather(table.GSlope, index)));
+            Store(result.B, i + shift, irradiance * (Gather(table.B, index) + colorFraction * Gather(table.BSlope, index)));
         }
         return i;
     }
@@ -161,6 +254,9 @@ public sealed unsafe class SkyTransform
         for (int lane = 0; lane < lanes.Length; lane++) lanes[lane] = table[index[lane]];
         return new Vector<float>(lanes);
     }
+
+    /// <summary>A run of catalogue stars and where it goes in the output.</summary>
+    private readonly record struct Piece(int CatalogStart, int Count, int OutputStart);
 
     /// <summary>Everything about the ship's frame that the per-star formulas need, in single precision.</summary>
     private readonly struct FrameConstants

@@ -46,6 +46,9 @@ public sealed class StarCatalog
     public string?[] Names { get; }
     /// <summary>Sky cell of each star (non-decreasing along the arrays), and the first star of each cell (length <see cref="CellCount"/> + 1).</summary>
     public int[] CellStart { get; }
+    /// <summary>Per sky cell: the unit axis and angular radius (radians) of a cap holding all its stars; radius −1 for an empty cell.</summary>
+    public Vec3[] CellAxis { get; }
+    public double[] CellRadius { get; }
 
     /// <summary>ln T and ln(10^(−0.4 V) / L_bb(T)), precomputed for <see cref="SkyTransform"/>.</summary>
     internal float[] LogTemperature { get; }
@@ -86,6 +89,7 @@ public sealed class StarCatalog
         CellStart = new int[CellCount + 1];
         foreach (int cell in cells) CellStart[cell + 1]++;
         for (int cell = 0; cell < CellCount; cell++) CellStart[cell + 1] += CellStart[cell];
+        (CellAxis, CellRadius) = BoundCells(X, Y, Z, CellStart);
 
         LogTemperature = new float[count];
         LogLuminanceScale = new float[count];
@@ -116,6 +120,25 @@ public sealed class StarCatalog
 
     /// <summary>The home-frame unit direction toward star <paramref name="index"/>, in double precision.</summary>
     public Vec3 Direction(int index) => new Vec3(X[index], Y[index], Z[index]).NormalizedOr(Vec3.UnitZ);
+
+    /// <summary>The smallest-ish cap around each cell's stars: axis along their mean direction, radius to the farthest (plus rounding).</summary>
+    private static (Vec3[] Axis, double[] Radius) BoundCells(float[] x, float[] y, float[] z, int[] cellStart)
+    {
+        var axis = new Vec3[CellCount];
+        var radius = new double[CellCount];
+        for (int cell = 0; cell < CellCount; cell++)
+        {
+            Vec3 sum = Vec3.Zero;
+            for (int i = cellStart[cell]; i < cellStart[cell + 1]; i++) sum += new Vec3(x[i], y[i], z[i]);
+            axis[cell] = sum.NormalizedOr(Vec3.UnitZ);
+            radius[cell] = -1;
+            for (int i = cellStart[cell]; i < cellStart[cell + 1]; i++)
+                radius[cell] = Math.Max(radius[cell], Vec3.AngleBetween(axis[cell], new Vec3(x[i], y[i], z[i])));
+            // Directions are stored in single precision: pad by far more than their rounding.
+            if (radius[cell] >= 0) radius[cell] += 1e-5;
+        }
+        return (axis, radius);
+    }
 
     /// <summary>The sky cell of a direction: cube face by dominant axis, then a square grid on that face.</summary>
     public static int CellOf(float x, float y, float z)

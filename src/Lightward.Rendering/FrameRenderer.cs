@@ -1,11 +1,12 @@
 using Lightward.Optics;
 using Lightward.Rendering.Projections;
+using Lightward.Spacetime;
 
 namespace Lightward.Rendering;
 
 /// <summary>
-/// Renders one frame, CPU only: observer → optics → projection → background → exposure → stars → layers → tone map
-/// → overlays (see <see cref="Render(Scene, Observer, Camera, RgbaImage)"/>). Keeps its buffers between frames, so a
+/// Renders one frame, CPU only: observer → optics → projection → background → layers rasterised → exposure → stars →
+/// layers composited → tone map → overlays (see <see cref="Render(Scene, Observer, Camera, RgbaImage)"/>). Keeps its buffers between frames, so a
 /// steady stream of same-sized frames does not allocate; not safe to call from two threads at once (use one renderer
 /// per thread). Output is identical for any thread count: every parallel stage gives each thread its own rows or
 /// its own stars.
@@ -42,9 +43,6 @@ public sealed class FrameRenderer
     /// <summary>The exposure the last frame used, in stops (display = HDR × 2^stops).</summary>
     public double LastExposureStops => _frame?.ExposureStops ?? double.NaN;
 
-    /// <summary>The apparent stars of the last frame (ship axes, linear sRGB irradiance).</summary>
-    public ApparentStars LastApparentStars => _apparentStars;
-
     /// <summary>Renders into a new image of the camera's size.</summary>
     public RgbaImage Render(Scene scene, Observer observer, Camera camera)
     {
@@ -60,10 +58,15 @@ public sealed class FrameRenderer
         ApplyOptics(frame);
         ProjectStars(frame);
         PaintBackground(frame);
+        RasterizeLayers(frame);
         MeterExposure(frame);
-        SplatStars(frame);
-        foreach (IFrameLayer layer in Layers) layer.Draw(frame);
-        ToneMap(frame);
+        if (StarsAlone(frame)) SplatStarsToDisplay(frame);
+        else
+        {
+            SplatStars(frame);
+            CompositeLayers(frame);
+            ToneMap(frame);
+        }
         foreach (IOverlay overlay in Overlays) overlay.Draw(frame);
     }
 
@@ -93,9 +96,10 @@ public sealed class FrameRenderer
         return _frame;
     }
 
-    /// <summary>Optics: every star's apparent direction (ship axes), colour and brightness for this ship frame.</summary>
+    /// <summary>Optics: apparent direction (ship axes), colour and brightness of every star that can appear in the view.</summary>
     private void ApplyOptics(FrameContext frame) =>
-        _skyTransform.Apply(frame.Scene.Sky, frame.Observer.Ship.Frame, _apparentStars);
+        _skyTransform.Apply(frame.Scene.Sky, frame.Observer.Ship.Frame, _apparentStars,
+            new ViewCone(frame.CameraToShip.Rotate(Vec3.UnitZ), frame.Projection.EnclosingHalfAngle), _parallel);
 
     /// <summary>Projection: apparent directions → camera axes → pixels.</summary>
     private void ProjectStars(FrameContext frame) =>
@@ -111,20 +115,45 @@ public sealed class FrameRenderer
         _hdrIsZero = false; // stays false if this frame fails half way
         _backgroundPainted = frame.Scene.ShowCosmicBackground
             && _background.Paint(frame.Hdr, frame.Projection, frame.Observer.Ship.Frame, frame.ShipToCamera, _parallel);
+        frame.Hdr.WhollyTouched |= _backgroundPainted;
         if (!_backgroundPainted && !alreadyZero) _background.Clear(frame.Hdr, _parallel);
     }
 
-    /// <summary>Exposure: the camera's manual setting, or metered from the stars and the background.</summary>
+    /// <summary>Layers, first pass: bodies and the grid work out what they show and draw it into buffers of their own, reporting how bright their surfaces are.</summary>
+    private void RasterizeLayers(FrameContext frame)
+    {
+        frame.SurfaceLevels.Clear();
+        foreach (IFrameLayer layer in Layers) layer.Rasterize(frame);
+    }
+
+    /// <summary>Exposure: the camera's manual setting, or metered from the stars, the background and the layers' surfaces.</summary>
     private void MeterExposure(FrameContext frame) =>
-        frame.ExposureScale = _meter.Meter(frame.Camera.Exposure, frame.Hdr, _backgroundPainted, _apparentStars, _splatter.X, _splatter.Y, _splatter.RadianceScale);
+        frame.ExposureScale = _meter.Meter(frame.Camera.Exposure, frame.Hdr, _backgroundPainted, _apparentStars, _splatter.X, _splatter.Y, _splatter.RadianceScale, frame.SurfaceLevels);
+
+    /// <summary>Nothing but stars to draw: no background glow, no layers.</summary>
+    private bool StarsAlone(FrameContext frame) => !_backgroundPainted && Layers.Count == 0;
 
     /// <summary>Stars: point-spread splats into the HDR frame, footprints sized by exposed flux.</summary>
     private void SplatStars(FrameContext frame) => _splatter.Splat(frame.Hdr, frame.ExposureScale, _parallel);
+
+    /// <summary>Stars alone: splatted tile by tile in cache and tone-mapped from there; the HDR frame stays zero.</summary>
+    private void SplatStarsToDisplay(FrameContext frame)
+    {
+        _splatter.SplatAndToneMap(frame.Image, frame.ExposureScale, _parallel);
+        _hdrIsZero = true;
+    }
+
+    /// <summary>Layers, second pass: laid over the stars in order; each marks the pixels it changes, so the tone map need not read the rest.</summary>
+    private void CompositeLayers(FrameContext frame)
+    {
+        foreach (IFrameLayer layer in Layers) layer.Composite(frame);
+    }
 
     /// <summary>Tone map: HDR → tone curve → sRGB bytes, written straight into the output image; leaves the HDR buffer zeroed for the next frame.</summary>
     private void ToneMap(FrameContext frame)
     {
         Parallel.For(0, (frame.Hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, _parallel, _toneMapBand);
+        frame.Hdr.WhollyTouched = false;
         _hdrIsZero = true;
     }
 

@@ -28,16 +28,25 @@ public sealed class FrameContext
     public HdrFrame Hdr { get; }
     /// <summary>The tone-mapped output; overlays draw here.</summary>
     public RgbaImage Image { get; }
-    /// <summary>Display value = HDR × this (known once metering has run: layers and overlays see the final value).</summary>
+    /// <summary>Display value = HDR × this (known once metering has run: layers' composites and overlays see the final value).</summary>
     public float ExposureScale { get; internal set; }
+    /// <summary>Brightness (HDR units) of the surfaces the layers will lay over the frame, filled as they rasterise, for the exposure meter.</summary>
+    public LevelHistogram SurfaceLevels { get; } = new();
     public double ExposureStops => Math.Log2(ExposureScale);
     public ParallelOptions Parallel { get; internal set; } = new();
 }
 
-/// <summary>A stage that draws into the HDR frame after the stars and before tone mapping (bodies, the grid of space).</summary>
+/// <summary>
+/// A stage that adds to the HDR frame in two passes (bodies, the grid of space). <see cref="Rasterize"/> runs before
+/// the exposure is metered: the layer works out what it shows, draws it into buffers of its own and adds the
+/// brightness of its surfaces to <see cref="FrameContext.SurfaceLevels"/>, so that what it shows is exposed for.
+/// <see cref="Composite"/> runs after the stars are splatted, with the exposure known: the layer lays its buffers over
+/// <see cref="FrameContext.Hdr"/> and marks every pixel group it changes (<see cref="HdrFrame.MarkTouched"/>).
+/// </summary>
 public interface IFrameLayer
 {
-    void Draw(FrameContext frame);
+    void Rasterize(FrameContext frame);
+    void Composite(FrameContext frame);
 }
 
 /// <summary>A stage that draws onto the tone-mapped RGBA image (instrument overlays, labels).</summary>

@@ -40,36 +40,86 @@ public static class ToneMapper
     /// Tone maps rows [<paramref name="firstRow"/>, <paramref name="endRow"/>) of <paramref name="hdr"/> into RGBA8
     /// pixels (R, G, B, A bytes in memory order; alpha 255) at <paramref name="rgba"/>, which holds the whole image,
     /// and zeroes those HDR rows while their cache lines are at hand, which saves the next frame a clearing pass.
+    /// Unless the frame is <see cref="HdrFrame.WhollyTouched"/>, only the touched pixel groups are read (the rest are
+    /// zero, so they map to black and are written as black) and their marks are cleared.
     /// </summary>
     public static unsafe void MapAndClearRows(HdrFrame hdr, float exposureScale, uint* rgba, int firstRow, int endRow)
     {
-        int start = firstRow * hdr.Width, end = endRow * hdr.Width;
-        int pixel = start;
         fixed (float* red = hdr.Red, green = hdr.Green, blue = hdr.Blue)
+        fixed (byte* touched = hdr.Touched)
+        {
+            if (hdr.WhollyTouched)
+            {
+                int start = firstRow * hdr.Width;
+                MapAndClear(red + start, green + start, blue + start, rgba + start, (endRow - firstRow) * hdr.Width, exposureScale);
+                new Span<byte>(touched + firstRow * hdr.GroupsPerRow, (endRow - firstRow) * hdr.GroupsPerRow).Clear();
+                return;
+            }
+            for (int row = firstRow; row < endRow; row++)
+            {
+                int rowStart = row * hdr.Width;
+                MapMarkedRow(red + rowStart, green + rowStart, blue + rowStart, touched + row * hdr.GroupsPerRow, rgba + rowStart, hdr.Width, exposureScale);
+            }
+        }
+    }
+
+    private const uint OpaqueBlack = 0xFF000000u;
+
+    /// <summary>
+    /// One row of <paramref name="width"/> pixels with a mark per <see cref="HdrFrame.GroupWidth"/>-pixel group: the
+    /// whole row is written black (what an untouched, all-zero group maps to), then each marked group is mapped, its
+    /// HDR values zeroed and its mark cleared.
+    /// </summary>
+    internal static unsafe void MapMarkedRow(float* red, float* green, float* blue, byte* marks, uint* rgba, int width, float exposureScale)
+    {
+        new Span<uint>(rgba, width).Fill(OpaqueBlack);
+        int wholeGroups = width / HdrFrame.GroupWidth, groups = (width + HdrFrame.GroupWidth - 1) / HdrFrame.GroupWidth;
+        fixed (int* table = EncodedTable)
+        {
+            bool vectorized = Avx2.IsSupported && HdrFrame.GroupWidth == Vector256<float>.Count;
+            var scale = Vector256.Create(exposureScale);
+            for (int group = 0; group < groups; group++)
+            {
+                if (marks[group] == 0) continue;
+                marks[group] = 0;
+                int first = group * HdrFrame.GroupWidth;
+                if (vectorized && group < wholeGroups) MapVector(red + first, green + first, blue + first, rgba + first, scale, table);
+                else MapAndClear(red + first, green + first, blue + first, rgba + first, Math.Min(HdrFrame.GroupWidth, width - first), exposureScale);
+            }
+        }
+    }
+
+    /// <summary>Eight pixels at once (AVX2): gather the encoded curve, pack RGBA, zero the HDR values.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe void MapVector(float* red, float* green, float* blue, uint* rgba, Vector256<float> scale, int* table)
+    {
+        Vector256<int> r = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(red) * scale), 4);
+        Vector256<int> g = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(green) * scale), 4);
+        Vector256<int> b = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(blue) * scale), 4);
+        Avx.Store(red, Vector256<float>.Zero);
+        Avx.Store(green, Vector256<float>.Zero);
+        Avx.Store(blue, Vector256<float>.Zero);
+        Avx.Store((int*)rgba, r | Avx2.ShiftLeftLogical(g, 8) | Avx2.ShiftLeftLogical(b, 16) | Vector256.Create(unchecked((int)OpaqueBlack)));
+    }
+
+    /// <summary>Tone maps <paramref name="count"/> pixels of three HDR planes into RGBA8 and zeroes the HDR values read.</summary>
+    internal static unsafe void MapAndClear(float* red, float* green, float* blue, uint* rgba, int count, float exposureScale)
+    {
+        int pixel = 0;
         fixed (int* table = EncodedTable)
         {
             if (Avx2.IsSupported)
             {
                 var scale = Vector256.Create(exposureScale);
-                var opaque = Vector256.Create(unchecked((int)0xFF000000));
-                for (; pixel + Vector256<float>.Count <= end; pixel += Vector256<float>.Count)
-                {
-                    Vector256<int> r = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(red + pixel) * scale), 4);
-                    Vector256<int> g = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(green + pixel) * scale), 4);
-                    Vector256<int> b = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(blue + pixel) * scale), 4);
-                    Avx.Store(red + pixel, Vector256<float>.Zero);
-                    Avx.Store(green + pixel, Vector256<float>.Zero);
-                    Avx.Store(blue + pixel, Vector256<float>.Zero);
-                    Vector256<int> packed = r | Avx2.ShiftLeftLogical(g, 8) | Avx2.ShiftLeftLogical(b, 16) | opaque;
-                    Avx.Store((int*)rgba + pixel, packed);
-                }
+                for (; pixel + Vector256<float>.Count <= count; pixel += Vector256<float>.Count)
+                    MapVector(red + pixel, green + pixel, blue + pixel, rgba + pixel, scale, table);
             }
-            for (; pixel < end; pixel++)
+            for (; pixel < count; pixel++)
             {
                 uint r = (uint)table[TableIndex(Curve(red[pixel] * exposureScale))];
                 uint g = (uint)table[TableIndex(Curve(green[pixel] * exposureScale))];
                 uint b = (uint)table[TableIndex(Curve(blue[pixel] * exposureScale))];
-                rgba[pixel] = r | g << 8 | b << 16 | 0xFF000000u;
+                rgba[pixel] = r | g << 8 | b << 16 | OpaqueBlack;
                 red[pixel] = green[pixel] = blue[pixel] = 0;
             }
         }

@@ -9,7 +9,9 @@ namespace Lightward.Benchmarks;
 /// <summary>
 /// What the near field adds to a 1080p frame: three passing bodies plus the grid of space. Goal: ≤ 4 ms added with
 /// three bodies of ≥ 2,000 triangles each. <see cref="Bands"/> sets the sphere detail (4·b² − 4·b triangles each:
-/// 24 → 2,208; 48 → 9,024; 96 → 36,480) to show how the cost grows with the triangle count.
+/// 24 → 2,208; 48 → 9,024; 96 → 36,480) to show how the cost grows with the triangle count. The layer alone
+/// (bodies, grid) is timed on its own HDR frame; <see cref="FrameWithEmptyNearField"/> shows what any layer costs the
+/// frame before it draws anything (the frame then goes through the HDR buffer and a tone map of every touched pixel).
 /// </summary>
 [MemoryDiagnoser]
 public class NearFieldBenchmarks
@@ -18,6 +20,7 @@ public class NearFieldBenchmarks
     private FrameRenderer _plain = null!, _withNearField = null!;
     private Scene _scene = null!;
     private Observer _observer;
+    private FrameRenderer _withEmptyLayer = null!;
     private NearFieldLayer _bodiesOnly = null!, _gridOnly = null!;
     private HdrFrame _hdr = null!;
     private Rendering.Projections.Projection _projection = null!;
@@ -39,12 +42,15 @@ public class NearFieldBenchmarks
         _plain = new FrameRenderer();
         _withNearField = new FrameRenderer();
         _withNearField.Layers.Add(new NearFieldLayer(bodies, grid));
+        _withEmptyLayer = new FrameRenderer();
+        _withEmptyLayer.Layers.Add(new NearFieldLayer([], null));
         _bodiesOnly = new NearFieldLayer(bodies, null);
         _gridOnly = new NearFieldLayer([], grid);
         _projection = camera.CreateProjection();
         _hdr = new HdrFrame(1920, 1080);
         _plain.Render(_scene, _observer, camera, _image);
         _withNearField.Render(_scene, _observer, camera, _image);
+        _withEmptyLayer.Render(_scene, _observer, camera, _image);
     }
 
     [Benchmark(Baseline = true)]
@@ -52,6 +58,9 @@ public class NearFieldBenchmarks
 
     [Benchmark]
     public void FrameWithBodiesAndGrid() => _withNearField.Render(_scene, _observer, RenderBenchmarkScenes.Perspective1080, _image);
+
+    [Benchmark]
+    public void FrameWithEmptyNearField() => _withEmptyLayer.Render(_scene, _observer, RenderBenchmarkScenes.Perspective1080, _image);
 
     [Benchmark]
     public void BodiesAlone() => _bodiesOnly.Draw(_hdr, _projection, _observer.Ship, Rotation.Identity, new ParallelOptions());

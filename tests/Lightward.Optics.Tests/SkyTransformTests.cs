@@ -93,4 +93,42 @@ public class SkyTransformTests
         for (int i = 0; i < Sky.Count; i++)
             Assert.True(float.IsFinite(output.X[i] + output.Y[i] + output.Z[i] + output.R[i] + output.G[i] + output.B[i]), $"star {i}");
     }
+
+    public static TheoryData<double, double> ViewCones => new()
+    {
+        { 0, 0.1 }, { 0, 0.85 }, { 3, 0.85 }, { 3, 0.01 }, { 10, 0.4 }, { 25, 1.6 }, { 8, 3.0 },
+    };
+
+    [Theory]
+    [MemberData(nameof(ViewCones))]
+    public void A_view_cone_keeps_every_star_that_appears_inside_it_with_the_same_values(double rapidity, double halfAngle)
+    {
+        // The culled pass must be a pure saving: every star the whole-sky pass puts inside the cone is kept, with the
+        // same numbers (to single-precision rounding: a cell kept alone may go through the scalar formulas), and the
+        // kept stars come in catalogue order. Views look ahead, aside and behind the motion.
+        LorentzFrame frame = Frame(rapidity);
+        var everything = new ApparentStars();
+        var transform = new SkyTransform();
+        transform.Apply(Sky, frame, everything);
+        foreach (Vec3 axis in new[] { Vec3.UnitZ, new Vec3(1, 0.2, 0).NormalizedOr(Vec3.UnitX), -Vec3.UnitZ, frame.Orientation.Inverse.Rotate(frame.Velocity.Direction) })
+        {
+            var kept = new ApparentStars();
+            transform.Apply(Sky, frame, kept, new ViewCone(axis, halfAngle), new ParallelOptions());
+            bool Same(int all, int cut) =>
+                Math.Abs(everything.X[all] - kept.X[cut]) <= 1e-5f && Math.Abs(everything.Y[all] - kept.Y[cut]) <= 1e-5f
+                && Math.Abs(everything.Z[all] - kept.Z[cut]) <= 1e-5f && Math.Abs(everything.G[all] - kept.G[cut]) <= 1e-4f * everything.G[all] + 1e-37f;
+            int next = 0, inside = 0;
+            for (int i = 0; i < everything.Count; i++)
+            {
+                bool isKept = next < kept.Count && Same(i, next);
+                if (isKept) next++;
+                if (Vec3.AngleBetween(new Vec3(everything.X[i], everything.Y[i], everything.Z[i]), axis) > halfAngle) continue;
+                inside++;
+                Assert.True(isKept, $"star {i} appears inside the cone around {axis} but was dropped");
+            }
+            Assert.Equal(kept.Count, next);
+            Assert.True(kept.Count >= inside);
+            if (halfAngle < 0.2 && rapidity == 0) Assert.True(kept.Count < Sky.Count / 10, $"a narrow view kept {kept.Count} of {Sky.Count} stars");
+        }
+    }
 }

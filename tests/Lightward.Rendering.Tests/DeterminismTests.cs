@@ -60,4 +60,74 @@ public class DeterminismTests
         renderer.Render(scene, resting, wide, image);
         Assert.Equal(fresh, image.Pixels);
     }
+
+    [Fact]
+    public void Pixels_where_no_light_fell_are_written_black_whatever_the_image_held()
+    {
+        // The tone map skips untouched pixel groups but must still overwrite them: hosts draw instruments on the image.
+        var camera = new Camera(ProjectionKind.Perspective, 320, 200, Math.PI / 2, 0, Exposure.Auto);
+        var scene = new Scene(Sky);
+        Observer observer = new(ShipState.AtRest(default), Rotation.Identity);
+        byte[] fresh = new FrameRenderer(2).Render(scene, observer, camera).Pixels;
+        var image = new RgbaImage(320, 200);
+        Array.Fill(image.Pixels, (byte)0x7F);
+        new FrameRenderer(2).Render(scene, observer, camera, image);
+        Assert.Equal(fresh, image.Pixels);
+    }
+
+    [Fact]
+    public unsafe void The_sparse_tone_map_gives_the_same_bytes_as_reading_every_pixel()
+    {
+        var splatter = new StarSplatter();
+        var marked = new HdrFrame(203, 70);
+        var whole = new HdrFrame(203, 70);
+        var random = new Random(3);
+        for (int star = 0; star < 60; star++)
+        {
+            float x = (float)(random.NextDouble() * 203), y = (float)(random.NextDouble() * 70), flux = (float)Math.Pow(10, random.NextDouble() * 5 - 2);
+            foreach (HdrFrame frame in new[] { marked, whole })
+                splatter.SplatOne(frame, x, y, flux, 0.7f * flux, 0.4f * flux, splatter.FootprintFor(flux), 0, 70, 0, 203);
+        }
+        whole.WhollyTouched = true;
+        var sparseImage = new RgbaImage(203, 70);
+        var fullImage = new RgbaImage(203, 70);
+        fixed (byte* sparse = sparseImage.Pixels, full = fullImage.Pixels)
+        {
+            ToneMapper.MapAndClearRows(marked, 0.5f, (uint*)sparse, 0, 70);
+            ToneMapper.MapAndClearRows(whole, 0.5f, (uint*)full, 0, 70);
+        }
+        Assert.Equal(fullImage.Pixels, sparseImage.Pixels);
+        Assert.Contains(sparseImage.Pixels, b => b is > 0 and < 255);
+        // Both leave the HDR frame zeroed and unmarked for the next frame.
+        Assert.All(marked.Red, v => Assert.Equal(0f, v));
+        Assert.All(marked.Touched, t => Assert.Equal(0, t));
+    }
+
+    /// <summary>A layer that draws nothing: it sends the frame down the path through the full HDR buffer.</summary>
+    private sealed class EmptyLayer : IFrameLayer
+    {
+        public void Rasterize(FrameContext frame) { }
+        public void Composite(FrameContext frame) { }
+    }
+
+    [Theory]
+    [InlineData(0.0, 90.0)]
+    [InlineData(3.0, 60.0)]
+    public void Stars_alone_give_the_same_bytes_splatted_in_cache_as_through_the_HDR_frame(double rapidity, double fieldOfView)
+    {
+        // A frame of stars alone is splatted tile by tile and tone-mapped from cache; with any layer present it goes
+        // through the full HDR frame. Same sums in the same order, so the same bytes. 203 px wide: a partial tile and
+        // a partial pixel group at the right edge.
+        var camera = new Camera(ProjectionKind.Perspective, 203, 150, fieldOfView * Math.PI / 180, 0, Exposure.Auto);
+        var scene = new Scene(Sky);
+        var observer = new Observer(ShipState.AtRest(default) with
+        {
+            Frame = new LorentzFrame(new Velocity(rapidity, new Vec3(0.2, 0.1, 1).NormalizedOr(Vec3.UnitZ)), Rotation.Identity),
+        }, Rotation.Identity);
+        byte[] inCache = new FrameRenderer(2).Render(scene, observer, camera).Pixels;
+        var throughHdr = new FrameRenderer(2);
+        throughHdr.Layers.Add(new EmptyLayer());
+        Assert.Equal(throughHdr.Render(scene, observer, camera).Pixels, inCache);
+        Assert.Contains(inCache, b => b > 40);
+    }
 }

@@ -7,7 +7,7 @@ namespace Lightward.Rendering.NearField;
 /// <param name="Direction">Unit direction (camera axes) toward where the body's centre appears.</param>
 /// <param name="Doppler">Doppler factor of the centre's light.</param>
 /// <param name="Distance">Emission-time distance of the centre in the ship's frame, light-seconds.</param>
-/// <param name="AngularDiameter">Twice the largest angle between the centre's image and any vertex's image, rad.</param>
+/// <param name="AngularDiameter">Twice the largest angle between the centre's image and the image of any corner of a front face, rad.</param>
 /// <param name="ApparentRotation">
 /// How far the body appears turned (Terrell 1959): the angle between the direction the light left the body in its
 /// rest frame and the direction it arrives from in the ship's frame, rad.
@@ -29,13 +29,25 @@ public sealed class BodyImager
     private const int MaxSplitDepth = 6;
     /// <summary>Sides longer than this on the sky are split regardless, so depth and colour interpolate smoothly, rad.</summary>
     private const double LongestSide = 0.25;
+    /// <summary>The squared chord between unit directions <see cref="LongestSide"/> apart: 4 sin²(θ/2).</summary>
+    private static readonly double LongestChordSquared = 4 * Math.Pow(Math.Sin(LongestSide / 2), 2);
     /// <summary>A Doppler factor varying by more than this ratio across a triangle splits it, so the colour gradient stays smooth.</summary>
     private const double DopplerSpread = 1.1;
 
     private readonly TriangleMesh _mesh;
     private readonly int[] _neighbours;
+    /// <summary>Per triangle side (A→B, B→C, C→A), the index of the mesh edge it lies on; shared sides share one.</summary>
+    private readonly int[] _sideEdges;
+    /// <summary>Per mesh edge, how its midpoint is seen this frame (looked at once, for whichever face needs it first).</summary>
+    private readonly PointSight[] _edgeMiddles;
+    private readonly bool[] _edgeMiddleSeen;
     private readonly PointSight[] _sights;
     private readonly bool[] _front;
+    /// <summary>Per vertex: a corner of a front face this frame (only those are looked at and shaded).</summary>
+    private readonly bool[] _seen;
+    private readonly Vector3[] _shades;
+    /// <summary>Marks a vertex not yet shaded this frame (no shade is negative).</summary>
+    private static readonly Vector3 UnshadedMark = new(-1);
     private RestFrameSight _sight;
     private SurfaceShader _shader;
 
@@ -44,8 +56,13 @@ public sealed class BodyImager
         Body = body;
         _mesh = body.Mesh;
         _neighbours = Neighbours(_mesh);
+        _sideEdges = SideEdges(_mesh, out int edgeCount);
+        _edgeMiddles = new PointSight[edgeCount];
+        _edgeMiddleSeen = new bool[edgeCount];
         _sights = new PointSight[_mesh.Vertices.Length];
         _front = new bool[_mesh.TriangleCount];
+        _seen = new bool[_mesh.Vertices.Length];
+        _shades = new Vector3[_mesh.Vertices.Length];
     }
 
     public NearFieldBody Body { get; }
@@ -64,19 +81,26 @@ public sealed class BodyImager
         _sight = RestFrameSight.Of(centre.Event, restFrame, ship, cameraToShip);
 
         Vec3[] vertices = _mesh.Vertices;
-        for (int i = 0; i < vertices.Length; i++) _sights[i] = _sight.See(vertices[i]);
         Vec3 camera = _sight.CameraEvent.Space;
         int[] corners = _mesh.TriangleCorners;
+        Array.Clear(_seen);
         for (int t = 0; t < _front.Length; t++)
         {
             Vec3 a = vertices[corners[3 * t]], b = vertices[corners[3 * t + 1]], c = vertices[corners[3 * t + 2]];
             // Facing is decided where the light left: the ray to the camera leaves through the outward side.
             _front[t] = Vec3.Dot(Vec3.Cross(b - a, c - a), camera - a) > 0;
+            if (_front[t]) _seen[corners[3 * t]] = _seen[corners[3 * t + 1]] = _seen[corners[3 * t + 2]] = true;
         }
+        // Only the front faces' corners are looked at: they hold the whole picture of a closed body, outline included.
+        for (int i = 0; i < vertices.Length; i++)
+            if (_seen[i]) _sights[i] = _sight.See(vertices[i]);
 
         PointSight middle = _sight.See(Vec3.Zero);
-        double radius = 0;
-        foreach (PointSight s in _sights) radius = Math.Max(radius, Vec3.AngleBetween(s.Direction, middle.Direction));
+        // The widest angle from the centre's image, found as the longest chord: θ = 2 asin(chord / 2).
+        double longestChordSquared = 0;
+        for (int i = 0; i < vertices.Length; i++)
+            if (_seen[i]) longestChordSquared = Math.Max(longestChordSquared, (_sights[i].Direction - middle.Direction).LengthSquared);
+        double radius = 2 * Math.Asin(Math.Min(1, Math.Sqrt(longestChordSquared) / 2));
         Vec3 restDirection = (-camera).NormalizedOr(Vec3.UnitZ);
         double rotation = Vec3.AngleBetween(restDirection, Optics.Aberration.Apparent(restDirection, _sight.ShipVelocityInFrame));
         return new BodyAppearance(middle.Direction, middle.Doppler, middle.Distance, 2 * radius, rotation, clockAtCentre + Body.ClockOffset + middle.EmissionTime);
@@ -89,6 +113,8 @@ public sealed class BodyImager
     public void AppendTriangles(List<SkyTriangle> output, double pixelsPerRadian, double referencePixelSolidAngle)
     {
         _shader = SurfaceShader.OfLuminance(Body.Surface.Temperature, Body.Surface.Luminance, referencePixelSolidAngle);
+        Array.Fill(_shades, UnshadedMark);
+        Array.Clear(_edgeMiddleSeen);
         Vec3[] vertices = _mesh.Vertices;
         int[] corners = _mesh.TriangleCorners;
         BodySurface surface = Body.Surface;
@@ -105,35 +131,57 @@ public sealed class BodyImager
                 if (neighbour < 0 || !_front[neighbour]) outline |= (byte)(1 << side);
             }
             int ia = corners[3 * t], ib = corners[3 * t + 1], ic = corners[3 * t + 2];
-            var piece = new Piece(vertices[ia], vertices[ib], vertices[ic], _sights[ia], _sights[ib], _sights[ic]);
-            Emit(output, piece, faceTint, outline, pixelsPerRadian, 0);
+            var piece = new Piece(CornerAt(ia), CornerAt(ib), CornerAt(ic));
+            Emit(output, piece, EdgeMiddle(t, 0, piece.A, piece.B), EdgeMiddle(t, 1, piece.B, piece.C), EdgeMiddle(t, 2, piece.C, piece.A), faceTint, outline, pixelsPerRadian, 0);
         }
     }
 
-    private readonly record struct Piece(Vec3 A, Vec3 B, Vec3 C, PointSight SeenA, PointSight SeenB, PointSight SeenC);
+    /// <summary>A corner of a piece of a face: body-frame point, how it is seen, and its shade for unit tint.</summary>
+    private readonly record struct Corner(Vec3 Point, PointSight Seen, Vector3 Shade);
 
-    private void Emit(List<SkyTriangle> output, in Piece p, Vector3 faceTint, byte outline, double pixelsPerRadian, int depth)
+    private readonly record struct Piece(Corner A, Corner B, Corner C);
+
+    /// <summary>A mesh vertex as a corner; each vertex is shaded once a frame, however many faces share it.</summary>
+    private Corner CornerAt(int vertex)
     {
-        if (depth < MaxSplitDepth)
+        if (_shades[vertex] == UnshadedMark) _shades[vertex] = _shader.Shade(_sights[vertex].Doppler);
+        return new Corner(_mesh.Vertices[vertex], _sights[vertex], _shades[vertex]);
+    }
+
+    /// <summary>How the midpoint of side <paramref name="side"/> of mesh triangle <paramref name="triangle"/> is seen, looked at once per edge and frame.</summary>
+    private PointSight EdgeMiddle(int triangle, int side, in Corner from, in Corner to)
+    {
+        int edge = _sideEdges[3 * triangle + side];
+        if (!_edgeMiddleSeen[edge])
         {
-            Vec3 ab = (p.A + p.B) / 2, bc = (p.B + p.C) / 2, ca = (p.C + p.A) / 2;
-            PointSight seenAB = _sight.See(ab), seenBC = _sight.See(bc), seenCA = _sight.See(ca);
-            if (NeedsSplit(p.SeenA, p.SeenB, seenAB, pixelsPerRadian) || NeedsSplit(p.SeenB, p.SeenC, seenBC, pixelsPerRadian)
-                || NeedsSplit(p.SeenC, p.SeenA, seenCA, pixelsPerRadian))
-            {
-                // Corner pieces keep the outline bits of the two original sides they lie on; the middle piece has none.
-                Emit(output, new Piece(p.A, ab, ca, p.SeenA, seenAB, seenCA), faceTint, (byte)(outline & 0b101), pixelsPerRadian, depth + 1);
-                Emit(output, new Piece(ab, p.B, bc, seenAB, p.SeenB, seenBC), faceTint, (byte)(outline & 0b011), pixelsPerRadian, depth + 1);
-                Emit(output, new Piece(ca, bc, p.C, seenCA, seenBC, p.SeenC), faceTint, (byte)(outline & 0b110), pixelsPerRadian, depth + 1);
-                Emit(output, new Piece(ab, bc, ca, seenAB, seenBC, seenCA), faceTint, 0, pixelsPerRadian, depth + 1);
-                return;
-            }
+            _edgeMiddles[edge] = _sight.See((from.Point + to.Point) / 2);
+            _edgeMiddleSeen[edge] = true;
+        }
+        return _edgeMiddles[edge];
+    }
+
+    /// <summary>Emits a piece, split into four while a side's image strays from its arc (its sides' middles seen as given).</summary>
+    private void Emit(List<SkyTriangle> output, in Piece p, PointSight seenAB, PointSight seenBC, PointSight seenCA, Vector3 faceTint, byte outline, double pixelsPerRadian, int depth)
+    {
+        if (depth < MaxSplitDepth
+            && (NeedsSplit(p.A.Seen, p.B.Seen, seenAB, pixelsPerRadian) || NeedsSplit(p.B.Seen, p.C.Seen, seenBC, pixelsPerRadian)
+                || NeedsSplit(p.C.Seen, p.A.Seen, seenCA, pixelsPerRadian)))
+        {
+            var ab = new Corner((p.A.Point + p.B.Point) / 2, seenAB, _shader.Shade(seenAB.Doppler));
+            var bc = new Corner((p.B.Point + p.C.Point) / 2, seenBC, _shader.Shade(seenBC.Doppler));
+            var ca = new Corner((p.C.Point + p.A.Point) / 2, seenCA, _shader.Shade(seenCA.Doppler));
+            // Corner pieces keep the outline bits of the two original sides they lie on; the middle piece has none.
+            EmitPiece(output, new Piece(p.A, ab, ca), faceTint, (byte)(outline & 0b101), pixelsPerRadian, depth + 1);
+            EmitPiece(output, new Piece(ab, p.B, bc), faceTint, (byte)(outline & 0b011), pixelsPerRadian, depth + 1);
+            EmitPiece(output, new Piece(ca, bc, p.C), faceTint, (byte)(outline & 0b110), pixelsPerRadian, depth + 1);
+            EmitPiece(output, new Piece(ab, bc, ca), faceTint, 0, pixelsPerRadian, depth + 1);
+            return;
         }
         output.Add(new SkyTriangle
         {
-            DirectionA = ToVector3(p.SeenA.Direction), DirectionB = ToVector3(p.SeenB.Direction), DirectionC = ToVector3(p.SeenC.Direction),
-            DepthA = (float)p.SeenA.Distance, DepthB = (float)p.SeenB.Distance, DepthC = (float)p.SeenC.Distance,
-            ColourA = faceTint * _shader.Shade(p.SeenA.Doppler), ColourB = faceTint * _shader.Shade(p.SeenB.Doppler), ColourC = faceTint * _shader.Shade(p.SeenC.Doppler),
+            DirectionA = ToVector3(p.A.Seen.Direction), DirectionB = ToVector3(p.B.Seen.Direction), DirectionC = ToVector3(p.C.Seen.Direction),
+            DepthA = (float)p.A.Seen.Distance, DepthB = (float)p.B.Seen.Distance, DepthC = (float)p.C.Seen.Distance,
+            ColourA = faceTint * p.A.Shade, ColourB = faceTint * p.B.Shade, ColourC = faceTint * p.C.Shade,
             OutlineSides = outline,
         });
     }
@@ -141,16 +189,44 @@ public sealed class BodyImager
     /// <summary>A side must be split when its midpoint's image strays half a pixel off the great-circle arc, the arc is long, or D varies much.</summary>
     private static bool NeedsSplit(PointSight from, PointSight to, PointSight middle, double pixelsPerRadian)
     {
+        if ((from.Direction - to.Direction).LengthSquared > LongestChordSquared) return true;
         Vec3 plane = Vec3.Cross(from.Direction, to.Direction);
-        double length = Vec3.AngleBetween(from.Direction, to.Direction);
-        if (length > LongestSide) return true;
         double spread = from.Doppler > to.Doppler ? from.Doppler / to.Doppler : to.Doppler / from.Doppler;
         if (spread > DopplerSpread) return true;
         double planeLength = plane.Length;
         return planeLength > 0 && Math.Abs(Vec3.Dot(middle.Direction, plane)) / planeLength * pixelsPerRadian > 0.5;
     }
 
+    /// <summary>A piece made by a split: its sides' middles are its own, looked at here (none when it can split no further).</summary>
+    private void EmitPiece(List<SkyTriangle> output, in Piece p, Vector3 faceTint, byte outline, double pixelsPerRadian, int depth)
+    {
+        if (depth >= MaxSplitDepth)
+        {
+            Emit(output, p, default, default, default, faceTint, outline, pixelsPerRadian, depth);
+            return;
+        }
+        Emit(output, p, _sight.See((p.A.Point + p.B.Point) / 2), _sight.See((p.B.Point + p.C.Point) / 2), _sight.See((p.C.Point + p.A.Point) / 2),
+            faceTint, outline, pixelsPerRadian, depth);
+    }
+
     private static Vector3 ToVector3(Vec3 v) => new((float)v.X, (float)v.Y, (float)v.Z);
+
+    /// <summary>Numbers the mesh's edges (a side shared by two faces is one edge) and gives each triangle side its edge.</summary>
+    private static int[] SideEdges(TriangleMesh mesh, out int edgeCount)
+    {
+        int[] corners = mesh.TriangleCorners;
+        var edgeOf = new Dictionary<(int, int), int>(corners.Length);
+        var sideEdges = new int[corners.Length];
+        for (int k = 0; k < corners.Length; k++)
+        {
+            int from = corners[k], to = corners[k - k % 3 + (k % 3 + 1) % 3];
+            (int, int) key = from < to ? (from, to) : (to, from);
+            if (!edgeOf.TryGetValue(key, out int edge)) edgeOf.Add(key, edge = edgeOf.Count);
+            sideEdges[k] = edge;
+        }
+        edgeCount = edgeOf.Count;
+        return sideEdges;
+    }
 
     /// <summary>For each triangle side (A→B, B→C, C→A) the triangle across it, or −1 on an open border.</summary>
     private static int[] Neighbours(TriangleMesh mesh)

@@ -7,9 +7,10 @@ namespace Lightward.Rendering.NearField;
 public readonly record struct BodyView(NearFieldBody Body, BodyAppearance? Appearance);
 
 /// <summary>
-/// The near field as a frame layer: bodies seen at their retarded positions, drawn as opaque surfaces with their own
-/// depth buffer, then the grid of space drawn in front of or behind them. Keeps its buffers between frames (they are
-/// rebuilt only when the projection changes).
+/// The near field as a frame layer: bodies seen at their retarded positions, drawn as opaque surfaces into buffers of
+/// their own with their own depth buffer (and metered), then laid over the stars, and the grid of space drawn in front
+/// of or behind them at a brightness relative to the display. Keeps its buffers between frames (they are rebuilt
+/// only when the projection changes); the surfaces stay in them from one frame's rasterising to the next.
 /// </summary>
 public sealed class NearFieldLayer : IFrameLayer
 {
@@ -24,6 +25,7 @@ public sealed class NearFieldLayer : IFrameLayer
     private readonly List<SkyTriangle> _triangles = [];
     private readonly List<SkyTriangle>[] _bodyTriangles;
     private readonly List<PixelSegment> _segments = [];
+    private readonly LineDrawer _lineDrawer = new();
     private readonly BodyView[] _views;
     private SkyRasterizer? _rasterizer;
 
@@ -63,11 +65,23 @@ public sealed class NearFieldLayer : IFrameLayer
         return Rotation.FromMatrix(new[,] { { right.X, up.X, forward.X }, { right.Y, up.Y, forward.Y }, { right.Z, up.Z, forward.Z } });
     }
 
-    public void Draw(FrameContext frame) =>
-        Draw(frame.Hdr, frame.Projection, frame.Observer.Ship, frame.CameraToShip, frame.Parallel);
+    public void Rasterize(FrameContext frame)
+    {
+        Rasterize(frame.Projection, frame.Observer.Ship, frame.CameraToShip, frame.Parallel);
+        _rasterizer!.AddSurfaceLevels(frame.SurfaceLevels);
+    }
 
-    /// <summary>Bodies → sky triangles → surface layer over the frame → grid lines (depth-tested against the surfaces).</summary>
-    public void Draw(HdrFrame hdr, Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
+    public void Composite(FrameContext frame) => Composite(frame.Hdr, frame.ExposureScale, frame.Parallel);
+
+    /// <summary>Both passes at once, for pictures of the near field alone: bodies and grid drawn over <paramref name="hdr"/>, the grid for exposure scale <paramref name="exposureScale"/>.</summary>
+    public void Draw(HdrFrame hdr, Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel, float exposureScale = 1)
+    {
+        Rasterize(projection, ship, cameraToShip, parallel);
+        Composite(hdr, exposureScale, parallel);
+    }
+
+    /// <summary>Bodies → sky triangles → the surface layer's own buffers; the grid's lines → pixel segments.</summary>
+    private void Rasterize(Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
     {
         SkyRasterizer rasterizer = RasterizerFor(projection);
         double pixelsPerRadian = PixelScaleMargin / Math.Sqrt(projection.ReferencePixelSolidAngle);
@@ -81,15 +95,17 @@ public sealed class NearFieldLayer : IFrameLayer
         });
         _triangles.Clear();
         foreach (List<SkyTriangle> triangles in _bodyTriangles) _triangles.AddRange(triangles);
+        rasterizer.Clear(parallel);
         rasterizer.Draw(System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_triangles), parallel);
-        rasterizer.CompositeOver(hdr.Red, hdr.Green, hdr.Blue);
-        if (Grid is not null)
-        {
-            _segments.Clear();
-            _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, projection, _segments, parallel);
-            LineDrawer.Draw(_segments, hdr, rasterizer, parallel);
-        }
-        rasterizer.Clear();
+        _segments.Clear();
+        if (Grid is not null) _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, projection, _segments, parallel);
+    }
+
+    /// <summary>Surfaces over the frame, then the grid's lines (depth-tested against the surfaces), brought to the exposure.</summary>
+    private void Composite(HdrFrame hdr, float exposureScale, ParallelOptions parallel)
+    {
+        _rasterizer!.CompositeOver(hdr, parallel);
+        if (_segments.Count > 0) _lineDrawer.Draw(_segments, hdr, _rasterizer, 1 / exposureScale, parallel);
     }
 
     private SkyRasterizer RasterizerFor(Projection projection)

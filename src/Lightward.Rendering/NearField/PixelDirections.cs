@@ -20,7 +20,11 @@ public sealed class PixelDirections
             int start = row * projection.Width;
             projection.UnprojectRow(row, X.AsSpan(start, projection.Width), Y.AsSpan(start, projection.Width), Z.AsSpan(start, projection.Width));
         });
+        HasBlankPixels = Array.Exists(X, float.IsNaN);
     }
+
+    /// <summary>True when some pixels show no direction (outside a dome's disc), so drawing must check each pixel.</summary>
+    public bool HasBlankPixels { get; }
 
     public Projection Projection { get; }
     public float[] X { get; }

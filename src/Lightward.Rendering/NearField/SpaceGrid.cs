@@ -7,12 +7,14 @@ namespace Lightward.Rendering.NearField;
 /// (multiples of <see cref="Spacing"/>), shown within <see cref="Extent"/> of the camera in that frame and fading out
 /// over the outer part of that sphere so lines never pop in or out. The lines are at rest in the frame whose origin
 /// event is <see cref="Origin"/> and whose axes map to home by <see cref="Frame"/> (the home frame by default; a
-/// body's rest frame as an option). They glow like a blackbody of <see cref="Temperature"/>, so a camera moving
-/// through the lattice sees them bluer and brighter ahead and redder and fainter behind.
+/// body's rest frame as an option). They take the hue of a blackbody of <see cref="Temperature"/> seen with the
+/// Doppler factor of their direction, so a camera moving through the lattice sees them bluer and brighter ahead and
+/// redder and fainter behind; their brightness is set relative to the display (<see cref="LineShader"/>), since a
+/// guide drawn on the picture has no radiance to expose for.
 /// </summary>
 /// <param name="Spacing">Distance between neighbouring parallel lines, light-seconds.</param>
 /// <param name="Extent">Radius around the camera within which lines are drawn, light-seconds.</param>
-/// <param name="Brightness">HDR value of a line pixel at D = 1 (1 = a V = 0 star on the reference pixel).</param>
+/// <param name="Brightness">Exposed (display-linear, before the tone curve) luminance of a line at D = 1; 1 shows at about half of display white.</param>
 public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin, LorentzFrame Frame, double Temperature = 6500, double Brightness = 0.25)
 {
     /// <summary>Lines are drawn out to at most this many spacings from the camera, whatever the extent (bounds the line count and the frame time).</summary>

@@ -26,9 +26,6 @@ public readonly struct SurfaceShader
     public static SurfaceShader OfLuminance(double temperature, double luminance, double referencePixelSolidAngle) =>
         new(temperature, Photometry.LogRadianceOfLogLuminance(Math.Log(luminance)) + Math.Log(referencePixelSolidAngle));
 
-    /// <summary>A source whose HDR value at D = 1 is <paramref name="restValue"/> (for drawn lines, whose width is a pixel at any distance).</summary>
-    public static SurfaceShader OfHdrValue(double temperature, double restValue) => new(temperature, Math.Log(restValue));
-
     /// <summary>HDR value (linear sRGB) of a surface element with unit tint seen with Doppler factor <paramref name="doppler"/>.</summary>
     public Vector3 Shade(double doppler)
     {

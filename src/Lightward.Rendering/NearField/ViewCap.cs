@@ -27,21 +27,5 @@ public readonly record struct ViewCap(Vec3 Centre, double Radius)
     }
 
     /// <summary>True when a cone of half-angle <paramref name="radius"/> around unit <paramref name="direction"/> cannot touch the image.</summary>
-    public bool Misses(Vec3 direction, double radius) => Vec3.AngleBetween(Centre, direction) > Radius + radius;
-
-    /// <summary>True when the great-circle arc from unit <paramref name="from"/> to unit <paramref name="to"/>, widened by <paramref name="margin"/>, cannot touch the image.</summary>
-    public bool MissesArc(Vec3 from, Vec3 to, double margin)
-    {
-        double nearest = Math.Min(Vec3.AngleBetween(Centre, from), Vec3.AngleBetween(Centre, to));
-        Vec3 normal = Vec3.Cross(from, to);
-        double normalLength = normal.Length;
-        if (normalLength > 0)
-        {
-            // The point of the full great circle nearest the centre; it counts only if it lies between the ends.
-            Vec3 foot = (Centre - Vec3.Dot(Centre, normal) / (normalLength * normalLength) * normal).NormalizedOr(from);
-            if (Vec3.Dot(Vec3.Cross(from, foot), normal) >= 0 && Vec3.Dot(Vec3.Cross(foot, to), normal) >= 0)
-                nearest = Math.Min(nearest, Vec3.AngleBetween(Centre, foot));
-        }
-        return nearest > Radius + margin;
-    }
+    public bool Misses(Vec3 direction, double radius) => Radius + radius < Math.PI && Vec3.Dot(Centre, direction) < Math.Cos(Radius + radius);
 }

@@ -34,6 +34,9 @@ public sealed class DomemasterProjection : Projection
 
     public override double ReferencePixelSolidAngle => AnglePerPixel * AnglePerPixel;
 
+    /// <summary>Stars are kept out to the rim of the disc (padded for the single-precision zenith angle).</summary>
+    public override double EnclosingHalfAngle => Math.Min(Math.PI, Aperture / 2 + 1e-4);
+
     public override bool TryProject(Vec3 direction, out double x, out double y)
     {
         double across = Math.Sqrt(direction.X * direction.X + direction.Y * direction.Y);

@@ -28,6 +28,8 @@ public sealed class EquirectangularProjection : Projection
 
     public override double ReferencePixelSolidAngle => LongitudePerPixel * LatitudePerPixel;
 
+    public override double EnclosingHalfAngle => Math.PI;
+
     public override bool TryProject(Vec3 direction, out double x, out double y)
     {
         double longitude = Math.Atan2(direction.X, direction.Z);

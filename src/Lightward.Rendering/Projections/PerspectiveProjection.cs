@@ -33,6 +33,10 @@ public sealed class PerspectiveProjection : Projection
 
     public override double ReferencePixelSolidAngle => 1 / (FocalLength * FocalLength);
 
+    /// <summary>The angle to the corner of the kept margin around the image (float rounding of the projection is far inside the padding).</summary>
+    public override double EnclosingHalfAngle =>
+        Math.Atan(Math.Sqrt(Math.Pow(Width / 2.0 + StarMargin, 2) + Math.Pow(Height / 2.0 + StarMargin, 2)) / FocalLength) + 1e-4;
+
     public override bool TryProject(Vec3 direction, out double x, out double y)
     {
         x = Width / 2.0 + FocalLength * direction.X / direction.Z;

@@ -27,6 +27,12 @@ public abstract class Projection
     /// <summary>Solid angle (sr) of the image's reference pixel (its centre); HDR values are radiance × this.</summary>
     public abstract double ReferencePixelSolidAngle { get; }
 
+    /// <summary>
+    /// Half-angle (radians) about the view axis +Z of a cone holding every direction for which
+    /// <see cref="ProjectDirections"/> keeps a star; π when the image can show any direction.
+    /// </summary>
+    public abstract double EnclosingHalfAngle { get; }
+
     /// <summary>Unit direction in camera axes → pixel position; false when the direction is not on the image.</summary>
     public abstract bool TryProject(Vec3 direction, out double x, out double y);
 

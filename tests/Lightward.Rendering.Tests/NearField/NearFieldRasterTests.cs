@@ -70,6 +70,30 @@ public class NearFieldRasterTests
     }
 
     [Fact]
+    public void WholeFrameWithBodiesAndGridIsTheSameForOneOrTwoThreads()
+    {
+        // Determinism is our own rule (DEVELOPERS.md): metering the surfaces, laying them over the stars and drawing the
+        // grid over both must not depend on scheduling.
+        NearFieldLayer Layer() => new(
+        [
+            Ball(new Vec3(-3, 0, 20), beta: new Vec3(0.7, 0, 0)),
+            new("hull", MeshShapes.Hull(4), NearFieldImages.Passing(new Vec3(3, 1, 18), -18, new Vec3(0, -0.5, 0)), NearFieldImages.Glow),
+        ], SpaceGrid.AtRestInHome(2, 16));
+        var scene = new Scene(Optics.StarCatalog.Procedural(3000, 5));
+        ShipState ship = ShipState.AtRest(new FourVector(0, 0.3, 0.2, 0.1)) with { Frame = new LorentzFrame(new Velocity(1.5, Vec3.UnitZ), Rotation.Identity) };
+        var camera = new Camera(ProjectionKind.Perspective, 321, 200, Math.PI / 2, 0, Exposure.Auto);
+        byte[] Render(int threads)
+        {
+            var renderer = new FrameRenderer(threads);
+            renderer.Layers.Add(Layer());
+            return renderer.Render(scene, new Observer(ship, Rotation.Identity), camera).Pixels;
+        }
+        byte[] one = Render(1);
+        Assert.Equal(one, Render(2));
+        Assert.Contains(one, b => b is > 30 and < 255);
+    }
+
+    [Fact]
     public void GridAheadOfAFastShipIsBluerAndBrighterThanBehindIt()
     {
         var grid = new NearFieldLayer([], SpaceGrid.AtRestInHome(1, 8));
@@ -84,4 +108,37 @@ public class NearFieldRasterTests
         Assert.True(ahead.Blue.Sum() / ahead.Red.Sum() > behind.Blue.Sum() / behind.Red.Sum());
     }
 
+    [Theory]
+    [InlineData(ProjectionKind.Perspective)]
+    [InlineData(ProjectionKind.Domemaster)]
+    public void GridLinesAreDrawnWhereverTheirPointsAppear(ProjectionKind kind)
+    {
+        // Where each lattice point is seen comes from the closed-form retarded sight (checked against the aberration
+        // formulas in RestFrameSightTests); the drawn lines must pass through those places to within about a pixel,
+        // however the lines were cut to the view and sampled.
+        var grid = SpaceGrid.AtRestInHome(1, 6);
+        ShipState ship = ShipState.AtRest(new FourVector(0, 0.3, 0.2, 0.1)) with { Frame = new LorentzFrame(new Velocity(1.5, new Vec3(0.6, 0, 0.8)), Rotation.Identity) };
+        Rotation cameraToShip = NearFieldImages.LookingAlong(new Vec3(1, 0.4, 0.2));
+        Projection projection = new Camera(kind, 240, kind == ProjectionKind.Domemaster ? 240 : 160, kind == ProjectionKind.Domemaster ? Math.PI : Math.PI / 3, 0, Exposure.Auto).CreateProjection();
+        HdrFrame frame = NearFieldImages.Render(new NearFieldLayer([], grid), projection, ship, cameraToShip);
+        RestFrameSight sight = RestFrameSight.Of(grid.Origin, grid.Frame, ship, cameraToShip);
+        Vec3 camera = sight.CameraEvent.Space;
+        int checkedPoints = 0;
+        foreach ((Vec3 from, Vec3 to) in grid.LinesAround(camera))
+            for (int k = 0; k <= 40; k++)
+            {
+                Vec3 point = from + k / 40.0 * (to - from);
+                // Only where the line is at full brightness (inside the fade), and away from the image's edge.
+                if (grid.Fade((point - camera).Length) < 1) continue;
+                if (!projection.TryProject(sight.See(point).Direction, out double x, out double y)) continue;
+                int px = (int)x, py = (int)y;
+                if (px < 2 || py < 2 || px >= projection.Width - 2 || py >= projection.Height - 2) continue;
+                bool drawn = false;
+                for (int dy = -1; dy <= 1; dy++)
+                    for (int dx = -1; dx <= 1; dx++) drawn |= frame.Luminance(px + dx, py + dy) > 0;
+                Assert.True(drawn, $"line point {point} seen at ({x:F1}, {y:F1}) is not drawn");
+                checkedPoints++;
+            }
+        Assert.True(checkedPoints > 200, $"{checkedPoints} points checked");
+    }
 }
