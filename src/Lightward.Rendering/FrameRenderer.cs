@@ -6,10 +6,10 @@ namespace Lightward.Rendering;
 
 /// <summary>
 /// Renders one frame, CPU only: observer → optics → projection → background → layers rasterised → exposure → stars →
-/// layers composited → tone map → overlays (see <see cref="Render(Scene, Observer, Camera, RgbaImage)"/>). Keeps its buffers between frames, so a
-/// steady stream of same-sized frames does not allocate; not safe to call from two threads at once (use one renderer
-/// per thread). Output is identical for any thread count: every parallel stage gives each thread its own rows or
-/// its own stars.
+/// layers composited → tone map → overlays (see <see cref="Render(Scene, Observer, Camera, RgbaImage)"/>); a frame of
+/// stars alone is splatted and tone-mapped in one pass. Keeps its buffers between frames, so a steady stream of
+/// same-sized frames does not allocate; not safe to call from two threads at once (use one renderer per thread).
+/// Output is identical for any thread count: every parallel stage gives each thread its own rows or its own stars.
 /// </summary>
 public sealed class FrameRenderer
 {
@@ -60,7 +60,7 @@ public sealed class FrameRenderer
         PaintBackground(frame);
         RasterizeLayers(frame);
         MeterExposure(frame);
-        if (StarsAlone(frame)) SplatStarsToDisplay(frame);
+        if (StarsAlone) SplatStarsToDisplay(frame);
         else
         {
             SplatStars(frame);
@@ -131,7 +131,7 @@ public sealed class FrameRenderer
         frame.ExposureScale = _meter.Meter(frame.Camera.Exposure, frame.Hdr, _backgroundPainted, _apparentStars, _splatter.X, _splatter.Y, _splatter.RadianceScale, frame.SurfaceLevels);
 
     /// <summary>Nothing but stars to draw: no background glow, no layers.</summary>
-    private bool StarsAlone(FrameContext frame) => !_backgroundPainted && Layers.Count == 0;
+    private bool StarsAlone => !_backgroundPainted && Layers.Count == 0;
 
     /// <summary>Stars: point-spread splats into the HDR frame, footprints sized by exposed flux.</summary>
     private void SplatStars(FrameContext frame) => _splatter.Splat(frame.Hdr, frame.ExposureScale, _parallel);
