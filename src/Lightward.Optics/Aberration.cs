@@ -38,17 +38,5 @@ public static class Aberration
     public static Vec3 SourceFromShipAxes(Vec3 apparentShip, LorentzFrame shipFrame) =>
         Source(shipFrame.Orientation.Rotate(apparentShip), shipFrame.Velocity);
 
-    private static Vec3 Shift(Vec3 direction, Vec3 motion, double rapidity)
-    {
-        Vec3 s = direction.NormalizedOr(motion);
-        Vec3 n = motion.NormalizedOr(Vec3.UnitZ);
-        double onePlusCos = (s + n).LengthSquared / 2;
-        double oneMinusCos = (s - n).LengthSquared / 2;
-        double epsilon = Math.Exp(-2 * rapidity);
-        double denominator = onePlusCos + epsilon * oneMinusCos;
-        double apparentCos = (onePlusCos - epsilon * oneMinusCos) / denominator;
-        double acrossScale = 2 * Math.Exp(-rapidity) / denominator;
-        Vec3 across = s - Vec3.Dot(s, n) * n;
-        return (apparentCos * n + acrossScale * across).NormalizedOr(n);
-    }
+    private static Vec3 Shift(Vec3 direction, Vec3 motion, double rapidity) => new MovingObserver(motion, rapidity).Apparent(direction);
 }

@@ -14,12 +14,7 @@ namespace Lightward.Optics;
 public static class Doppler
 {
     /// <summary>D for a source in home-frame direction <paramref name="homeDirection"/>.</summary>
-    public static double Factor(Vec3 homeDirection, Velocity velocity)
-    {
-        Vec3 s = homeDirection.NormalizedOr(velocity.Direction);
-        double onePlusCos = (s + velocity.Direction).LengthSquared / 2;
-        return Math.Exp(-velocity.Rapidity) + Math.Sinh(velocity.Rapidity) * onePlusCos;
-    }
+    public static double Factor(Vec3 homeDirection, Velocity velocity) => new MovingObserver(velocity).Doppler(homeDirection);
 
     /// <summary>D for light arriving from apparent direction <paramref name="apparentComoving"/> (comoving axes).</summary>
     public static double FactorFromApparent(Vec3 apparentComoving, Velocity velocity)

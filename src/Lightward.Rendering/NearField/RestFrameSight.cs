@@ -17,12 +17,8 @@ public readonly record struct PointSight(Vec3 Direction, double Doppler, double 
 /// direction toward the point in the frame is then aberrated into camera axes by the velocity of the ship relative
 /// to the frame, and the Doppler factor comes from the same relative velocity. A null path's time component scales
 /// with D between frames, so the ship-frame light path is D times the rest-frame one.
-/// <para>
-/// The formulas are those of <see cref="Aberration"/> and <see cref="Doppler"/> (half-angle aberration without
-/// cancellation; D = e^(−φ) + sinh φ (1 + cos θ)), with everything that depends only on the relative velocity —
-/// e^(−φ), e^(−2φ), sinh φ and the axes rotation — worked out once per frame instead of once per point: the near
-/// field sees tens of thousands of points a frame, and those calls were most of the cost of each.
-/// </para>
+/// Everything that depends only on the relative velocity (a <see cref="MovingObserver"/> and the axes rotation) is
+/// worked out once per frame instead of once per point: the near field sees tens of thousands of points a frame.
 /// </summary>
 public readonly struct RestFrameSight
 {
@@ -31,8 +27,7 @@ public readonly struct RestFrameSight
     private readonly Rotation _cameraToFrameComoving;
     /// <summary>Frame-aligned comoving axes → camera axes.</summary>
     private readonly Rotation _comovingToCamera;
-    private readonly Vec3 _motion;
-    private readonly double _expMinusRapidity, _expMinusTwiceRapidity, _sinhRapidity;
+    private readonly MovingObserver _observer;
 
     /// <param name="cameraEvent">The camera event in the frame's own coordinates (axes and origin of the frame).</param>
     /// <param name="shipInFrame">The ship's axes → the frame's coordinates (a Lorentz transform in polar form).</param>
@@ -43,11 +38,7 @@ public readonly struct RestFrameSight
         _shipInFrame = shipInFrame;
         _cameraToFrameComoving = (shipInFrame.Orientation * cameraToShip).Normalized();
         _comovingToCamera = _cameraToFrameComoving.Inverse;
-        double rapidity = shipInFrame.Velocity.Rapidity;
-        _motion = shipInFrame.Velocity.Direction.NormalizedOr(Vec3.UnitZ);
-        _expMinusRapidity = Math.Exp(-rapidity);
-        _expMinusTwiceRapidity = Math.Exp(-2 * rapidity);
-        _sinhRapidity = Math.Sinh(rapidity);
+        _observer = new MovingObserver(shipInFrame.Velocity);
     }
 
     /// <summary>
@@ -68,16 +59,7 @@ public readonly struct RestFrameSight
     {
         Vec3 toward = point - _camera.Space;
         double distance = toward.Length;
-        Vec3 source = distance > 0 ? toward / distance : _motion;
-        Vec3 n = _motion;
-        // 1 ± cos θ as half squared chords, each free of cancellation (see Aberration).
-        double onePlusCos = (source + n).LengthSquared / 2;
-        double oneMinusCos = (source - n).LengthSquared / 2;
-        double denominator = onePlusCos + _expMinusTwiceRapidity * oneMinusCos;
-        double apparentCos = (onePlusCos - _expMinusTwiceRapidity * oneMinusCos) / denominator;
-        double acrossScale = 2 * _expMinusRapidity / denominator;
-        Vec3 apparent = (apparentCos * n + acrossScale * (source - Vec3.Dot(source, n) * n)).NormalizedOr(n);
-        double doppler = _expMinusRapidity + _sinhRapidity * onePlusCos;
+        Vec3 apparent = _observer.ApparentOfUnit(distance > 0 ? toward / distance : _observer.Motion, out double doppler);
         return new PointSight(_comovingToCamera.Rotate(apparent), doppler, doppler * distance, _camera.T - distance);
     }
 
