@@ -1,5 +1,3 @@
-using Lightward.Optics;
-
 namespace Lightward.Rendering;
 
 /// <summary>
@@ -37,13 +35,15 @@ public sealed class ExposureMeter
 
     private readonly LevelHistogram _histogram = new();
 
-    /// <summary>The exposure scale (display = HDR × scale) for this frame; <paramref name="surfaces"/> holds the levels of the layers' surfaces.</summary>
-    public float Meter(Exposure exposure, HdrFrame frame, bool backgroundPainted, ApparentStars stars,
-        ReadOnlySpan<float> x, ReadOnlySpan<float> y, ReadOnlySpan<float> radianceScale, LevelHistogram surfaces)
+    /// <summary>
+    /// The exposure scale (display = HDR × scale) for this frame; <paramref name="stars"/> holds the pixel luminances
+    /// of the stars on the image, <paramref name="surfaces"/> the levels of the layers' surfaces.
+    /// </summary>
+    public float Meter(Exposure exposure, HdrFrame frame, bool backgroundPainted, LevelHistogram stars, LevelHistogram surfaces)
     {
         if (!exposure.Automatic) return (float)Math.Pow(2, exposure.Stops);
         double scale = double.PositiveInfinity;
-        float starKey = StarKey(frame, stars, x, y, radianceScale);
+        float starKey = stars.Count == 0 ? 0 : stars.LevelWithCountAbove((int)Math.Ceiling(StarKeyFraction * stars.Count));
         if (starKey > 0) scale = StarKeyLevel / starKey;
         if (backgroundPainted)
         {
@@ -63,18 +63,6 @@ public sealed class ExposureMeter
         }
         if (double.IsInfinity(scale)) scale = Math.Pow(2, DefaultStops);
         return (float)(scale * Math.Pow(2, exposure.Stops));
-    }
-
-    private float StarKey(HdrFrame frame, ApparentStars stars, ReadOnlySpan<float> x, ReadOnlySpan<float> y, ReadOnlySpan<float> radianceScale)
-    {
-        _histogram.Clear();
-        for (int i = 0; i < stars.Count; i++)
-        {
-            // NaN x fails both comparisons.
-            if (!(x[i] >= 0 && x[i] < frame.Width && y[i] >= 0 && y[i] < frame.Height)) continue;
-            _histogram.Add((ColorWeights.Red * stars.R[i] + ColorWeights.Green * stars.G[i] + ColorWeights.Blue * stars.B[i]) * radianceScale[i]);
-        }
-        return _histogram.Count == 0 ? 0 : _histogram.LevelWithCountAbove((int)Math.Ceiling(StarKeyFraction * _histogram.Count));
     }
 
     private float BackgroundKey(HdrFrame frame)
@@ -105,6 +93,13 @@ public sealed class LevelHistogram
 
     /// <summary>Levels counted since the last <see cref="Clear"/>.</summary>
     public int Count { get; private set; }
+
+    /// <summary>Adds every level counted in <paramref name="other"/>.</summary>
+    public void Add(LevelHistogram other)
+    {
+        for (int bin = 0; bin < _bins.Length; bin++) _bins[bin] += other._bins[bin];
+        Count += other.Count;
+    }
 
     public void Clear()
     {

@@ -128,7 +128,7 @@ public sealed class FrameRenderer
 
     /// <summary>Exposure: the camera's manual setting, or metered from the stars, the background and the layers' surfaces.</summary>
     private void MeterExposure(FrameContext frame) =>
-        frame.ExposureScale = _meter.Meter(frame.Camera.Exposure, frame.Hdr, _backgroundPainted, _apparentStars, _splatter.X, _splatter.Y, _splatter.RadianceScale, frame.SurfaceLevels);
+        frame.ExposureScale = _meter.Meter(frame.Camera.Exposure, frame.Hdr, _backgroundPainted, _splatter.StarLevels, frame.SurfaceLevels);
 
     /// <summary>Nothing but stars to draw: no background glow, no layers.</summary>
     private bool StarsAlone => !_backgroundPainted && Layers.Count == 0;

@@ -1,3 +1,6 @@
+using System.Numerics;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using System.Runtime.Intrinsics;
 using Lightward.Optics;
 using Lightward.Rendering.Projections;
@@ -17,8 +20,11 @@ namespace Lightward.Rendering;
 /// </summary>
 public sealed class StarSplatter
 {
-    public const int BandHeight = 16;
-    public const int TileWidth = 128;
+    public const int BandHeight = 1 << BandShift;
+    public const int TileWidth = 1 << TileShift;
+    private const int BandShift = 4, TileShift = 7;
+    /// <summary>Packing of a footprint's extent in tiles: band span in the high four bits, column span in the low four (a kernel reaches at most 129 px).</summary>
+    private const int SpanShift = 4, ColumnSpanMask = 0xF;
 
     /// <summary>Exposed flux above which a single bilinear sample would look like a hard square: use a kernel.</summary>
     public const float BilinearLimit = 1;
@@ -29,16 +35,24 @@ public sealed class StarSplatter
     private const byte Hidden = byte.MaxValue, Bilinear = 0;
 
     private float[] _x = [], _y = [], _radianceScale = [];
+    /// <summary>Per star: luminance × radiance scale, the brightness it lends a pixel before exposure; 0 when it cannot show.</summary>
+    private float[] _pixelLuminance = [];
+    /// <summary>Per projection chunk: the levels of its stars that land on the image, merged into <see cref="StarLevels"/>.</summary>
+    private LevelHistogram[] _chunkLevels = [];
     /// <summary>Per star: <see cref="Hidden"/>, <see cref="Bilinear"/>, or kernel size index + 1.</summary>
     private byte[] _footprint = [];
-    /// <summary>Per star: the first and last row band and tile column its footprint touches (meaningless for hidden stars).</summary>
-    private short[] _firstBand = [], _lastBand = [], _firstTileColumn = [], _lastTileColumn = [];
+    /// <summary>
+    /// Per star (meaningless for hidden ones): the first tile its footprint touches, and how many more row bands
+    /// (high four bits) and tile columns (low four) it reaches.
+    /// </summary>
+    private int[] _firstTile = [];
+    private byte[] _tileSpan = [];
     /// <summary>Per chunk and tile: first the count of the chunk's stars in the tile, then the tile's write cursor for the chunk.</summary>
     private int[] _chunkTileCursor = [];
     /// <summary>Where each tile's list of stars starts in <see cref="_tileStars"/> (tiles row band by row band).</summary>
     private int[] _tileStart = [];
-    /// <summary>Each tile's stars, as indices, tile after tile.</summary>
-    private int[] _tileStars = [];
+    /// <summary>Each tile's stars, tile after tile, packed so that a tile reads its stars in one sequential sweep.</summary>
+    private SplatRecord[] _tileStars = [];
     private int _bandCount, _tilesPerBand, _tileCount;
 
     private readonly PointSpreadKernels _kernels = PointSpreadKernels.Shared;
@@ -62,11 +76,11 @@ public sealed class StarSplatter
         _splatBandIntoImage = SplatBandIntoImage;
     }
 
-    /// <summary>Pixel x of each star from the last <see cref="Project"/>, NaN when off the image.</summary>
-    public ReadOnlySpan<float> X => _x.AsSpan(0, _stars.Count);
-    public ReadOnlySpan<float> Y => _y.AsSpan(0, _stars.Count);
-    /// <summary>Reference pixel solid angle ÷ the solid angle of the pixel each star lands on.</summary>
-    public ReadOnlySpan<float> RadianceScale => _radianceScale.AsSpan(0, _stars.Count);
+    /// <summary>
+    /// From the last <see cref="Project"/>: the pixel brightness (luminance × radiance scale, before exposure) of every
+    /// star that lands on the image, for the exposure meter.
+    /// </summary>
+    public LevelHistogram StarLevels { get; } = new();
 
     /// <summary>Stage "projection": apparent directions (ship axes) → camera axes → pixel positions.</summary>
     public void Project(ApparentStars stars, AxesTransform shipToCamera, Projection projection, ParallelOptions parallel)
@@ -77,11 +91,15 @@ public sealed class StarSplatter
         if (_x.Length < stars.Count)
         {
             _x = new float[stars.Count]; _y = new float[stars.Count]; _radianceScale = new float[stars.Count];
+            _pixelLuminance = new float[stars.Count];
             _footprint = new byte[stars.Count];
-            _firstBand = new short[stars.Count]; _lastBand = new short[stars.Count];
-            _firstTileColumn = new short[stars.Count]; _lastTileColumn = new short[stars.Count];
+            _firstTile = new int[stars.Count]; _tileSpan = new byte[stars.Count];
         }
-        Parallel.For(0, (stars.Count + ChunkSize - 1) / ChunkSize, parallel, _projectChunk);
+        int chunks = (stars.Count + ChunkSize - 1) / ChunkSize;
+        if (_chunkLevels.Length < chunks) _chunkLevels = [.. _chunkLevels, .. Enumerable.Range(0, chunks - _chunkLevels.Length).Select(_ => new LevelHistogram())];
+        Parallel.For(0, chunks, parallel, _projectChunk);
+        StarLevels.Clear();
+        for (int chunk = 0; chunk < chunks; chunk++) StarLevels.Add(_chunkLevels[chunk]);
     }
 
     /// <summary>Stage "splat stars": bins the projected stars into tiles, then adds their light to <paramref name="frame"/> (marking the groups it touches).</summary>
@@ -114,16 +132,34 @@ public sealed class StarSplatter
     {
         fixed (float* r = frame.Red, g = frame.Green, b = frame.Blue)
         fixed (byte* marks = frame.Touched)
-            SplatOne(FrameTarget(frame, r, g, b, marks), x, y, red, green, blue, footprint, new TileBounds(firstRow, endRow, firstColumn, endColumn));
+            SplatOne(FrameTarget(frame, r, g, b, marks), SplatRecord.At(x, y, red, green, blue, footprint), new TileBounds(firstRow, endRow, firstColumn, endColumn));
     }
 
     private static unsafe SplatTarget FrameTarget(HdrFrame frame, float* red, float* green, float* blue, byte* marks) =>
         new(red, green, blue, marks, frame.Width, frame.GroupsPerRow, 0, 0);
 
-    private void SplatOne(in SplatTarget target, float x, float y, float red, float green, float blue, int footprint, in TileBounds clip)
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private void SplatOne(in SplatTarget target, in SplatRecord star, in TileBounds clip)
     {
-        if (footprint == Bilinear) SplatBilinear(target, x, y, red, green, blue, clip);
-        else SplatKernel(target, x, y, red, green, blue, footprint - 1, clip);
+        if (star.Footprint == Bilinear) SplatBilinear(target, star, clip);
+        else SplatKernel(target, star, clip);
+    }
+
+    /// <summary>
+    /// One star as a tile splats it: the pixel its footprint is anchored at (a bilinear sample's top-left, a kernel's
+    /// centre), the star's offset from that pixel, its flux already scaled to radiance, and its footprint code.
+    /// Positions are whole pixels here once, so the tiles a star touches need no float-to-int conversions.
+    /// </summary>
+    private readonly record struct SplatRecord(float OffsetX, float OffsetY, float Red, float Green, float Blue, short Column, short Row, byte Footprint)
+    {
+        /// <summary>Columns and rows fit in a short: images are at most 16384 px and stars at most <see cref="Projection.StarMargin"/> outside.</summary>
+        public static SplatRecord At(float x, float y, float red, float green, float blue, int footprint)
+        {
+            // A bilinear sample covers the 2×2 pixels from floor(x − ½), floor(y − ½); a kernel centres on floor(x), floor(y).
+            float anchorX = footprint == Bilinear ? x - 0.5f : x, anchorY = footprint == Bilinear ? y - 0.5f : y;
+            int column = FloorToInt(anchorX), row = FloorToInt(anchorY);
+            return new SplatRecord(anchorX - column, anchorY - row, red, green, blue, (short)column, (short)row, (byte)footprint);
+        }
     }
 
     /// <summary>Rows [FirstRow, EndRow) and columns [FirstColumn, EndColumn) of one tile.</summary>
@@ -142,11 +178,21 @@ public sealed class StarSplatter
 
         public int Index(int row, int column) => (row - OriginRow) * Stride + column - OriginColumn;
 
+        /// <summary>Marks the 2×2 pixels from (<paramref name="row"/>, <paramref name="column"/>), all inside the target.</summary>
+        public void MarkSquare(int row, int column)
+        {
+            byte* rowMarks = marks + (row - OriginRow) * markStride;
+            uint left = (uint)(column - OriginColumn) / HdrFrame.GroupWidth, right = (uint)(column + 1 - OriginColumn) / HdrFrame.GroupWidth;
+            rowMarks[left] = rowMarks[right] = rowMarks[left + markStride] = rowMarks[right + markStride] = 1;
+        }
+
         /// <summary>Marks columns [<paramref name="firstColumn"/>, <paramref name="endColumn"/>) of <paramref name="row"/> (non-empty).</summary>
         public void Mark(int row, int firstColumn, int endColumn)
         {
             byte* rowMarks = marks + (row - OriginRow) * markStride;
-            for (int group = (firstColumn - OriginColumn) / HdrFrame.GroupWidth; group <= (endColumn - 1 - OriginColumn) / HdrFrame.GroupWidth; group++)
+            // Columns never lie left of the origin, so unsigned division: a shift.
+            uint lastGroup = (uint)(endColumn - 1 - OriginColumn) / HdrFrame.GroupWidth;
+            for (uint group = (uint)(firstColumn - OriginColumn) / HdrFrame.GroupWidth; group <= lastGroup; group++)
                 rowMarks[group] = 1;
         }
     }
@@ -161,49 +207,145 @@ public sealed class StarSplatter
         Span<float> cameraX = stackalloc float[count], cameraY = stackalloc float[count], cameraZ = stackalloc float[count];
         _shipToCamera.Apply(_stars.X.AsSpan(start, count), _stars.Y.AsSpan(start, count), _stars.Z.AsSpan(start, count), cameraX, cameraY, cameraZ);
         _projection!.ProjectDirections(cameraX, cameraY, cameraZ, _x.AsSpan(start, count), _y.AsSpan(start, count), _radianceScale.AsSpan(start, count));
+        MeasureLevels(chunk, start, start + count);
     }
 
     /// <summary>
+    /// Each star's pixel luminance (0 when it is off the image or dark), and the histogram of those landing on the
+    /// image: a vector of stars at a time, then the rest one by one with the same arithmetic.
+    /// </summary>
+    private void MeasureLevels(int chunk, int start, int end)
+    {
+        float[] red = _stars.R, green = _stars.G, blue = _stars.B;
+        float width = _projection!.Width, height = _projection.Height;
+        LevelHistogram levels = _chunkLevels[chunk];
+        levels.Clear();
+        Vector<float> redWeight = new(ColorWeights.Red), greenWeight = new(ColorWeights.Green), blueWeight = new(ColorWeights.Blue);
+        Vector<float> right = new(width), bottom = new(height);
+        int i = start;
+        for (; i <= end - Vector<float>.Count; i += Vector<float>.Count)
+        {
+            Vector<float> x = Load(_x, i), y = Load(_y, i);
+            Vector<float> luminance = redWeight * Load(red, i) + greenWeight * Load(green, i) + blueWeight * Load(blue, i);
+            // x == x is false for NaN (off the image).
+            Vector<int> shows = Vector.Equals(x, x) & Vector.GreaterThan(luminance, Vector<float>.Zero);
+            Vector<float> level = Vector.ConditionalSelect(shows, luminance * Load(_radianceScale, i), Vector<float>.Zero);
+            Store(_pixelLuminance, i, level);
+            Vector<int> onImage = Vector.GreaterThanOrEqual(x, Vector<float>.Zero) & Vector.LessThan(x, right)
+                & Vector.GreaterThanOrEqual(y, Vector<float>.Zero) & Vector.LessThan(y, bottom);
+            if (onImage == Vector<int>.Zero) continue;
+            for (int lane = 0; lane < Vector<float>.Count; lane++)
+                if (onImage[lane] != 0) levels.Add(level[lane]);
+        }
+        for (; i < end; i++)
+        {
+            float x = _x[i], y = _y[i];
+            float luminance = ColorWeights.Red * red[i] + ColorWeights.Green * green[i] + ColorWeights.Blue * blue[i];
+            _pixelLuminance[i] = !float.IsNaN(x) && luminance > 0 ? luminance * _radianceScale[i] : 0;
+            if (x >= 0 && x < width && y >= 0 && y < height) levels.Add(_pixelLuminance[i]); // false for NaN x
+        }
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector<float> Load(float[] array, int i) =>
+        Vector.LoadUnsafe(ref MemoryMarshal.GetArrayDataReference(array), (nuint)i);
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void Store(float[] array, int i, Vector<float> value) =>
+        value.StoreUnsafe(ref MemoryMarshal.GetArrayDataReference(array), (nuint)i);
+
+    /// <summary>
     /// Hides stars off the image, picks each visible star's footprint from its exposed flux, notes the tiles the
-    /// footprint touches and counts the chunk's stars per tile.
+    /// footprint touches and counts the chunk's stars per tile. Runs of stars that are all bilinear or hidden (nearly
+    /// all of them) are placed a vector at a time; a vector holding a kernel star goes star by star.
     /// </summary>
     private void AssignFootprints(int chunk)
     {
-        float[] red = _stars.R, green = _stars.G, blue = _stars.B;
-        float exposureScale = _exposureScale;
-        int height = _height, width = _width, start = chunk * ChunkSize, end = Math.Min(_stars.Count, start + ChunkSize);
-        int cursors = chunk * _tileCount;
-        for (int i = start; i < end; i++)
+        int start = chunk * ChunkSize, end = Math.Min(_stars.Count, start + ChunkSize), cursors = chunk * _tileCount;
+        Vector<float> exposureScale = new(_exposureScale), bilinearLimit = new(BilinearLimit), half = new(0.5f);
+        Vector<int> lastRow = new(_height - 1), lastColumn = new(_width - 1), tilesPerBand = new(_tilesPerBand);
+        int i = start;
+        for (; i <= end - Vector<float>.Count; i += Vector<float>.Count)
         {
-            float y = _y[i];
-            float luminance = ColorWeights.Red * red[i] + ColorWeights.Green * green[i] + ColorWeights.Blue * blue[i];
-            if (float.IsNaN(_x[i]) || y < -Projection.StarMargin || y > height + Projection.StarMargin || !(luminance > 0))
+            Vector<float> level = Load(_pixelLuminance, i);
+            Vector<int> shows = Vector.GreaterThan(level, Vector<float>.Zero);
+            if ((shows & Vector.GreaterThan(level * exposureScale, bilinearLimit)) != Vector<int>.Zero)
             {
-                _footprint[i] = Hidden;
+                for (int star = i; star < i + Vector<float>.Count; star++) AssignStar(star, cursors);
                 continue;
             }
-            int footprint = FootprintFor(luminance * _radianceScale[i] * exposureScale);
-            int radius = footprint == Bilinear ? 0 : PointSpreadKernels.Radii[footprint - 1];
-            // A bilinear sample covers rows floor(y − ½) and the one below; a kernel, its radius around floor(y).
-            int firstRow = footprint == Bilinear ? (int)MathF.Floor(y - 0.5f) : (int)MathF.Floor(y) - radius;
-            int lastRow = footprint == Bilinear ? firstRow + 1 : (int)MathF.Floor(y) + radius;
-            int firstColumn = footprint == Bilinear ? (int)MathF.Floor(_x[i] - 0.5f) : (int)MathF.Floor(_x[i]) - radius;
-            int lastColumn = footprint == Bilinear ? firstColumn + 1 : (int)MathF.Floor(_x[i]) + radius;
-            if (lastRow < 0 || firstRow >= height || lastColumn < 0 || firstColumn >= width)
+            // A bilinear sample covers rows floor(y − ½) and the one below, columns likewise (as in AssignStar).
+            Vector<int> top = Vector.ConvertToInt32(Vector.Floor(Load(_y, i) - half));
+            Vector<int> left = Vector.ConvertToInt32(Vector.Floor(Load(_x, i) - half));
+            shows &= Vector.GreaterThanOrEqual(top, new Vector<int>(-1)) & Vector.LessThanOrEqual(top, lastRow)
+                & Vector.GreaterThanOrEqual(left, new Vector<int>(-1)) & Vector.LessThanOrEqual(left, lastColumn);
+            Vector<int> firstBand = Vector.ShiftRightArithmetic(Vector.Max(top, Vector<int>.Zero), BandShift);
+            Vector<int> firstTileColumn = Vector.ShiftRightArithmetic(Vector.Max(left, Vector<int>.Zero), TileShift);
+            Vector<int> bandSpan = Vector.ShiftRightArithmetic(Vector.Min(top + Vector<int>.One, lastRow), BandShift) - firstBand;
+            Vector<int> columnSpan = Vector.ShiftRightArithmetic(Vector.Min(left + Vector<int>.One, lastColumn), TileShift) - firstTileColumn;
+            Vector<int> firstTile = firstBand * tilesPerBand + firstTileColumn;
+            Vector<int> span = Vector.ShiftLeft(bandSpan, SpanShift) | columnSpan;
+            for (int lane = 0; lane < Vector<float>.Count; lane++)
             {
-                _footprint[i] = Hidden;
-                continue;
+                if (shows[lane] == 0)
+                {
+                    _footprint[i + lane] = Hidden;
+                    continue;
+                }
+                _footprint[i + lane] = Bilinear;
+                Place(i + lane, firstTile[lane], span[lane], cursors);
             }
-            _footprint[i] = (byte)footprint;
-            int firstBand = Math.Max(firstRow, 0) / BandHeight, lastBand = Math.Min(lastRow, height - 1) / BandHeight;
-            int firstTile = Math.Max(firstColumn, 0) / TileWidth, lastTile = Math.Min(lastColumn, width - 1) / TileWidth;
-            _firstBand[i] = (short)firstBand;
-            _lastBand[i] = (short)lastBand;
-            _firstTileColumn[i] = (short)firstTile;
-            _lastTileColumn[i] = (short)lastTile;
-            for (int band = firstBand; band <= lastBand; band++)
-                for (int tile = firstTile; tile <= lastTile; tile++) _chunkTileCursor[cursors + band * _tilesPerBand + tile]++;
         }
+        for (; i < end; i++) AssignStar(i, cursors);
+    }
+
+    /// <summary><see cref="AssignFootprints"/> for one star.</summary>
+    private void AssignStar(int i, int cursors)
+    {
+        float y = _y[i];
+        if (!(_pixelLuminance[i] > 0))
+        {
+            _footprint[i] = Hidden;
+            return;
+        }
+        int footprint = FootprintFor(_pixelLuminance[i] * _exposureScale);
+        int firstRow, lastRow, firstColumn, lastColumn;
+        if (footprint == Bilinear)
+        {
+            // A bilinear sample covers rows floor(y − ½) and the one below, columns likewise.
+            firstRow = FloorToInt(y - 0.5f);
+            firstColumn = FloorToInt(_x[i] - 0.5f);
+            lastRow = firstRow + 1;
+            lastColumn = firstColumn + 1;
+        }
+        else
+        {
+            // A kernel covers its radius around floor(y), floor(x).
+            int radius = PointSpreadKernels.Radii[footprint - 1], centreRow = FloorToInt(y), centreColumn = FloorToInt(_x[i]);
+            firstRow = centreRow - radius;
+            lastRow = centreRow + radius;
+            firstColumn = centreColumn - radius;
+            lastColumn = centreColumn + radius;
+        }
+        if (lastRow < 0 || firstRow >= _height || lastColumn < 0 || firstColumn >= _width)
+        {
+            _footprint[i] = Hidden;
+            return;
+        }
+        _footprint[i] = (byte)footprint;
+        int firstBand = Math.Max(firstRow, 0) >> BandShift, lastBand = Math.Min(lastRow, _height - 1) >> BandShift;
+        int firstTileColumn = Math.Max(firstColumn, 0) >> TileShift, lastTileColumn = Math.Min(lastColumn, _width - 1) >> TileShift;
+        Place(i, firstBand * _tilesPerBand + firstTileColumn, (lastBand - firstBand) << SpanShift | (lastTileColumn - firstTileColumn), cursors);
+    }
+
+    /// <summary>Notes star <paramref name="i"/>'s tiles (first tile, band and column span) and counts it in each.</summary>
+    private void Place(int i, int firstTile, int span, int cursors)
+    {
+        _firstTile[i] = firstTile;
+        _tileSpan[i] = (byte)span;
+        for (int band = 0; band <= span >> SpanShift; band++)
+            for (int column = 0; column <= (span & ColumnSpanMask); column++)
+                _chunkTileCursor[cursors + firstTile + band * _tilesPerBand + column]++;
     }
 
     /// <summary>
@@ -225,18 +367,22 @@ public sealed class StarSplatter
             }
         }
         _tileStart[_tileCount] = total;
-        if (_tileStars.Length < total) _tileStars = new int[Math.Max(total, _tileStars.Length * 2)];
+        if (_tileStars.Length < total) _tileStars = new SplatRecord[Math.Max(total, _tileStars.Length * 2)];
     }
 
     private void FillTiles(int chunk)
     {
+        float[] red = _stars.R, green = _stars.G, blue = _stars.B;
         int start = chunk * ChunkSize, end = Math.Min(_stars.Count, start + ChunkSize), cursors = chunk * _tileCount;
         for (int i = start; i < end; i++)
         {
             if (_footprint[i] == Hidden) continue;
-            for (int band = _firstBand[i]; band <= _lastBand[i]; band++)
-                for (int tile = _firstTileColumn[i]; tile <= _lastTileColumn[i]; tile++)
-                    _tileStars[_chunkTileCursor[cursors + band * _tilesPerBand + tile]++] = i;
+            float scale = _radianceScale[i];
+            SplatRecord star = SplatRecord.At(_x[i], _y[i], red[i] * scale, green[i] * scale, blue[i] * scale, _footprint[i]);
+            int firstTile = _firstTile[i], span = _tileSpan[i];
+            for (int band = 0; band <= span >> SpanShift; band++)
+                for (int column = 0; column <= (span & ColumnSpanMask); column++)
+                    _tileStars[_chunkTileCursor[cursors + firstTile + band * _tilesPerBand + column]++] = star;
         }
     }
 
@@ -266,13 +412,10 @@ public sealed class StarSplatter
     private void SplatTile(in SplatTarget target, int band, int tileColumn, in TileBounds clip)
     {
         int tile = band * _tilesPerBand + tileColumn;
-        float[] red = _stars.R, green = _stars.G, blue = _stars.B, x = _x, y = _y, radianceScale = _radianceScale;
-        int[] tileStars = _tileStars;
+        SplatRecord[] tileStars = _tileStars;
         for (int entry = _tileStart[tile]; entry < _tileStart[tile + 1]; entry++)
         {
-            int i = tileStars[entry];
-            float scale = radianceScale[i];
-            SplatOne(target, x[i], y[i], red[i] * scale, green[i] * scale, blue[i] * scale, _footprint[i], clip);
+            SplatOne(target, tileStars[entry], clip);
         }
     }
 
@@ -315,22 +458,35 @@ public sealed class StarSplatter
         }
     }
 
-    private static unsafe void SplatBilinear(in SplatTarget target, float x, float y, float red, float green, float blue, in TileBounds clip)
+    /// <summary>
+    /// floor as an int with the processor's own conversion, without the saturating checks of a C# cast: star
+    /// positions are finite and within <see cref="Projection.StarMargin"/> of an image at most 16384 px wide.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static int FloorToInt(float value) => float.ConvertToIntegerNative<int>(MathF.Floor(value));
+
+    /// <summary>A bilinear sample: inline for the common case of a star wholly inside the tile, else clipped to it.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe void SplatBilinear(in SplatTarget target, in SplatRecord star, in TileBounds clip)
     {
-        float fx = x - 0.5f, fy = y - 0.5f;
-        int left = (int)MathF.Floor(fx), top = (int)MathF.Floor(fy);
-        float ax = fx - left, ay = fy - top;
+        int left = star.Column, top = star.Row;
         if (left >= clip.FirstColumn && left + 2 <= clip.EndColumn && top >= clip.FirstRow && top + 2 <= clip.EndRow)
         {
-            // The common case, wholly inside the tile: four weights, the same products as the general loop below.
+            // Four weights, the same products as the clipped loop.
             int index = target.Index(top, left), below = index + target.Stride;
-            AddPair(target.Red, index, below, ax, ay, red);
-            AddPair(target.Green, index, below, ax, ay, green);
-            AddPair(target.Blue, index, below, ax, ay, blue);
-            target.Mark(top, left, left + 2);
-            target.Mark(top + 1, left, left + 2);
-            return;
+            AddPair(target.Red, index, below, star.OffsetX, star.OffsetY, star.Red);
+            AddPair(target.Green, index, below, star.OffsetX, star.OffsetY, star.Green);
+            AddPair(target.Blue, index, below, star.OffsetX, star.OffsetY, star.Blue);
+            target.MarkSquare(top, left);
         }
+        else SplatBilinearClipped(target, star, clip);
+    }
+
+    [MethodImpl(MethodImplOptions.NoInlining)]
+    private static unsafe void SplatBilinearClipped(in SplatTarget target, in SplatRecord star, in TileBounds clip)
+    {
+        int left = star.Column, top = star.Row;
+        float ax = star.OffsetX, ay = star.OffsetY, red = star.Red, green = star.Green, blue = star.Blue;
         int columnStart = Math.Max(left, clip.FirstColumn), columnEnd = Math.Min(left + 2, clip.EndColumn);
         if (columnStart >= columnEnd) return;
         for (int row = Math.Max(top, clip.FirstRow); row <= top + 1 && row < clip.EndRow; row++)
@@ -348,7 +504,7 @@ public sealed class StarSplatter
         }
     }
 
-    [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveInlining)]
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static unsafe void AddPair(float* plane, int index, int below, float ax, float ay, float value)
     {
         plane[index] += (1 - ay) * (1 - ax) * value;
@@ -357,12 +513,12 @@ public sealed class StarSplatter
         plane[below + 1] += ay * ax * value;
     }
 
-    private unsafe void SplatKernel(in SplatTarget target, float x, float y, float red, float green, float blue, int size, in TileBounds clip)
+    private unsafe void SplatKernel(in SplatTarget target, in SplatRecord star, in TileBounds clip)
     {
-        int radius = PointSpreadKernels.Radii[size], side = 2 * radius + 1;
-        int centreColumn = (int)MathF.Floor(x), centreRow = (int)MathF.Floor(y);
-        float[] weights = _kernels.Weights(size, PointSpreadKernels.PhaseOf(x - centreColumn), PointSpreadKernels.PhaseOf(y - centreRow));
-        int top = centreRow - radius, left = centreColumn - radius;
+        int size = star.Footprint - 1, radius = PointSpreadKernels.Radii[size], side = 2 * radius + 1;
+        float[] weights = _kernels.Weights(size, PointSpreadKernels.PhaseOf(star.OffsetX), PointSpreadKernels.PhaseOf(star.OffsetY));
+        int top = star.Row - radius, left = star.Column - radius;
+        float red = star.Red, green = star.Green, blue = star.Blue;
         int rowStart = Math.Max(top, clip.FirstRow), rowEnd = Math.Min(top + side, clip.EndRow);
         int columnStart = Math.Max(left, clip.FirstColumn), columnEnd = Math.Min(left + side, clip.EndColumn);
         if (columnStart >= columnEnd) return;
@@ -393,7 +549,7 @@ public sealed class StarSplatter
             }
     }
 
-    [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveInlining)]
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static unsafe void AddScaled(float* pixels, Vector256<float> weight, Vector256<float> value) =>
         Vector256.Store(Vector256.Load(pixels) + weight * value, pixels);
 }

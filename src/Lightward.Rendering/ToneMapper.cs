@@ -1,3 +1,4 @@
+using System.Numerics;
 using System.Runtime.CompilerServices;
 using System.Runtime.Intrinsics;
 using System.Runtime.Intrinsics.X86;
@@ -78,15 +79,33 @@ public static class ToneMapper
         {
             bool vectorized = Avx2.IsSupported && HdrFrame.GroupWidth == Vector256<float>.Count;
             var scale = Vector256.Create(exposureScale);
-            for (int group = 0; group < groups; group++)
+            // Marks are scattered (a star touches a few groups), so they are read a block at a time and the marked
+            // groups visited through the block's bit mask: one hard-to-predict branch per block, not per group.
+            for (int block = 0; block < groups; block += MarkBlock)
             {
-                if (marks[group] == 0) continue;
-                marks[group] = 0;
-                int first = group * HdrFrame.GroupWidth;
-                if (vectorized && group < wholeGroups) MapVector(red + first, green + first, blue + first, rgba + first, scale, table);
-                else MapAndClear(red + first, green + first, blue + first, rgba + first, Math.Min(HdrFrame.GroupWidth, width - first), exposureScale);
+                int blockLength = Math.Min(MarkBlock, groups - block);
+                for (uint marked = MarkedGroups(marks + block, blockLength); marked != 0; marked &= marked - 1)
+                {
+                    int group = block + BitOperations.TrailingZeroCount(marked), first = group * HdrFrame.GroupWidth;
+                    if (vectorized && group < wholeGroups) MapVector(red + first, green + first, blue + first, rgba + first, scale, table);
+                    else MapAndClear(red + first, green + first, blue + first, rgba + first, Math.Min(HdrFrame.GroupWidth, width - first), exposureScale);
+                }
+                new Span<byte>(marks + block, blockLength).Clear();
             }
         }
+    }
+
+    /// <summary>Groups whose marks are read at once: a 128-bit vector of mark bytes.</summary>
+    private const int MarkBlock = 16;
+
+    /// <summary>Bit g set when group g of the <paramref name="count"/> (≤ <see cref="MarkBlock"/>) at <paramref name="marks"/> is marked.</summary>
+    private static unsafe uint MarkedGroups(byte* marks, int count)
+    {
+        if (count == MarkBlock) return ~Vector128.Equals(Vector128.Load(marks), Vector128<byte>.Zero).ExtractMostSignificantBits() & 0xFFFF;
+        uint marked = 0;
+        for (int group = 0; group < count; group++)
+            if (marks[group] != 0) marked |= 1u << group;
+        return marked;
     }
 
     /// <summary>Eight pixels at once (AVX2): gather the encoded curve, pack RGBA, zero the HDR values.</summary>

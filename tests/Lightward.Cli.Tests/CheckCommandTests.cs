@@ -1,15 +1,12 @@
-using System.Runtime.CompilerServices;
 
 namespace Lightward.Cli.Tests;
 
-/// <summary>The shipped scenarios folder, found from this source file so builds with any artifacts path work.</summary>
+/// <summary>The shipped scenarios folder.</summary>
 internal static class ShippedScenarios
 {
-    public static string Folder { get; } = Path.GetFullPath(Path.Combine(Path.GetDirectoryName(ThisFile())!, "..", "..", "scenarios"));
+    public static string Folder { get; } = Path.Combine(CliRunner.RepositoryRoot, "scenarios");
 
     public static string File(string name) => Path.Combine(Folder, name);
-
-    private static string ThisFile([CallerFilePath] string path = "") => path;
 }
 
 public sealed class CheckCommandTests : IDisposable

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Diagnostics;
 
 namespace Lightward.Cli.Tests;
@@ -32,14 +33,11 @@ public static class CliRunner
         return new Result(process.ExitCode, stdout.Result, stderr.Result);
     }
 
-    /// <summary>The repository root (holds Lightward.sln), for tests that read shipped scenarios and assets.</summary>
-    public static string RepositoryRoot
-    {
-        get
-        {
-            var directory = new DirectoryInfo(AppContext.BaseDirectory);
-            while (directory is not null && !File.Exists(Path.Combine(directory.FullName, "Lightward.sln"))) directory = directory.Parent;
-            return directory?.FullName ?? throw new InvalidOperationException("repository root not found");
-        }
-    }
+    /// <summary>
+    /// The repository root (holds Lightward.sln), for tests that read shipped scenarios and assets; found from this
+    /// source file, so builds to any artifacts path work.
+    /// </summary>
+    public static string RepositoryRoot { get; } = Path.GetFullPath(Path.Combine(Path.GetDirectoryName(ThisFile())!, "..", ".."));
+
+    private static string ThisFile([CallerFilePath] string path = "") => path;
 }

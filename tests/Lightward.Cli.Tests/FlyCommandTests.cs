@@ -89,7 +89,7 @@ public class FlyCommandTests
     public void A_scenario_flight_is_logged_and_replays_bit_identically()
     {
         string folder = Directory.CreateTempSubdirectory("lightward-fly-log-").FullName;
-        string scenario = Path.Combine(CliRunner.RepositoryRoot, "scenarios", "dock-tessaly.toml");
+        string scenario = ShippedScenarios.File("dock-tessaly.toml");
         var flight = CliRunner.RunIn(folder, "fly", scenario, "--headless", "--frames", "20", "--size", "160x90",
             "--screenshot", "shot.png", "--record", "live.flightlog");
         Assert.True(flight.ExitCode == 0, flight.Stderr);

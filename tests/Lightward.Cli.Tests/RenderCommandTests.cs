@@ -1,14 +1,9 @@
-using System.Runtime.CompilerServices;
 using Lightward.Rendering;
 
 namespace Lightward.Cli.Tests;
 
 public class RenderCommandTests
 {
-    /// <summary>The repository holding this test's source, found from the source path so it also works when builds go to an outside artifacts folder.</summary>
-    private static string RepositoryRootOfThisSource([CallerFilePath] string sourceFile = "") =>
-        Path.GetFullPath(Path.Combine(Path.GetDirectoryName(sourceFile)!, "..", ".."));
-
     private static string TempFolder()
     {
         string folder = Path.Combine(Path.GetTempPath(), "lightward-render-tests", Guid.NewGuid().ToString("N"));
@@ -85,7 +80,7 @@ public class RenderCommandTests
     [Fact]
     public void Renders_the_view_from_a_scenarios_ship_and_refuses_flags_that_would_replace_it()
     {
-        string scenario = Path.Combine(RepositoryRootOfThisSource(), "scenarios", "free-flight.toml");
+        string scenario = ShippedScenarios.File("free-flight.toml");
         string output = Path.Combine(TempFolder(), "scenario.png");
         var result = CliRunner.Run("render", scenario, "--at", "10 min", "--size", "160x90", "--out", output);
         Assert.True(result.ExitCode == 0, result.Stderr);

@@ -1,5 +1,4 @@
 using System.Diagnostics;
-using System.Runtime.CompilerServices;
 using System.Text.Json;
 
 namespace Lightward.Cli.Tests;
@@ -68,8 +67,7 @@ public sealed class RenderShowPreviewTests : IDisposable
     }
 
     /// <summary>A shipped sound file, found from this source file so any artifacts path works.</summary>
-    private static string ShippedSound(string name, [CallerFilePath] string thisFile = "") =>
-        Path.GetFullPath(Path.Combine(Path.GetDirectoryName(thisFile)!, "..", "..", "scenarios", "sounds", name));
+    private static string ShippedSound(string name) => Path.Combine(ShippedScenarios.Folder, "sounds", name);
 
     public void Dispose()
     {

@@ -1,4 +1,3 @@
-using System.Runtime.CompilerServices;
 
 namespace Lightward.Cli.Tests;
 
@@ -16,8 +15,7 @@ public class ShowCommandTests
     }
 
     /// <summary>The shipped demo show, found from this source file so any artifacts path works.</summary>
-    private static string DemoShow([CallerFilePath] string thisFile = "") =>
-        Path.GetFullPath(Path.Combine(Path.GetDirectoryName(thisFile)!, "..", "..", "scenarios", "outbound.show.toml"));
+    private static string DemoShow() => ShippedScenarios.File("outbound.show.toml");
 
     [Fact]
     public void A_missing_show_file_is_a_user_error()

@@ -14,6 +14,7 @@ namespace Lightward.Rendering.Projections;
 public sealed class DomemasterProjection : Projection
 {
     private readonly float _centre, _anglePerPixel, _halfAperture;
+    private readonly VectorMapping _projectVector;
 
     public DomemasterProjection(int size, double aperture) : base(size, size)
     {
@@ -24,6 +25,7 @@ public sealed class DomemasterProjection : Projection
         _centre = size / 2f;
         _anglePerPixel = (float)AnglePerPixel;
         _halfAperture = (float)(aperture / 2);
+        _projectVector = ProjectVector;
     }
 
     /// <summary>Full angle across the disc, radians (π for a hemisphere).</summary>
@@ -72,19 +74,22 @@ public sealed class DomemasterProjection : Projection
         zenithAngle < Math.PI / 2 ? (sine > 1e-4 ? zenithAngle / sine : 1) : zenithAngle / Math.Max(sine, minimumSine);
 
     public override void ProjectDirections(ReadOnlySpan<float> dx, ReadOnlySpan<float> dy, ReadOnlySpan<float> dz,
-        Span<float> x, Span<float> y, Span<float> radianceScale)
+        Span<float> x, Span<float> y, Span<float> radianceScale) =>
+        ForEachVector(dx, dy, dz, x, y, radianceScale, _projectVector);
+
+    /// <summary>The vector form of the mapping and of <see cref="ZenithRadianceScale"/>.</summary>
+    private void ProjectVector(Vector<float> dx, Vector<float> dy, Vector<float> dz, out Vector<float> x, out Vector<float> y, out Vector<float> radianceScale)
     {
-        float minimumSine = _anglePerPixel / 2;
-        for (int i = 0; i < dx.Length; i++)
-        {
-            float across = MathF.Sqrt(dx[i] * dx[i] + dy[i] * dy[i]);
-            float zenithAngle = MathF.Atan2(across, dz[i]);
-            float scale = across > 0 ? zenithAngle / _anglePerPixel / across : 0;
-            float px = _centre + scale * dx[i], py = _centre - scale * dy[i];
-            x[i] = zenithAngle <= _halfAperture && WithinMargin(px, py) ? px : float.NaN;
-            y[i] = py;
-            radianceScale[i] = (float)ZenithRadianceScale(zenithAngle, across, minimumSine);
-        }
+        Vector<float> across = Vector.SquareRoot(dx * dx + dy * dy);
+        Vector<float> zenithAngle = VectorAngles.Atan2(across, dz);
+        Vector<int> offAxis = Vector.GreaterThan(across, Vector<float>.Zero);
+        Vector<float> scale = Vector.ConditionalSelect(offAxis, zenithAngle / new Vector<float>(_anglePerPixel) / across, Vector<float>.Zero);
+        Vector<float> px = new Vector<float>(_centre) + scale * dx, py = new Vector<float>(_centre) - scale * dy;
+        x = Vector.ConditionalSelect(Vector.LessThanOrEqual(zenithAngle, new Vector<float>(_halfAperture)) & WithinMargin(px, py), px, new Vector<float>(float.NaN));
+        y = py;
+        Vector<float> frontScale = Vector.ConditionalSelect(Vector.GreaterThan(across, new Vector<float>(1e-4f)), zenithAngle / across, Vector<float>.One);
+        Vector<float> backScale = zenithAngle / Vector.Max(across, new Vector<float>(_anglePerPixel / 2));
+        radianceScale = Vector.ConditionalSelect(Vector.LessThan(zenithAngle, new Vector<float>(MathF.PI / 2)), frontScale, backScale);
     }
 
     public override void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz)

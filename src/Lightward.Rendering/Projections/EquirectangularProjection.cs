@@ -12,6 +12,7 @@ namespace Lightward.Rendering.Projections;
 public sealed class EquirectangularProjection : Projection
 {
     private readonly float _centreX, _centreY, _longitudePerPixel, _latitudePerPixel;
+    private readonly VectorMapping _projectVector;
 
     public EquirectangularProjection(int width, int height) : base(width, height)
     {
@@ -21,6 +22,7 @@ public sealed class EquirectangularProjection : Projection
         _centreY = height / 2f;
         _longitudePerPixel = (float)LongitudePerPixel;
         _latitudePerPixel = (float)LatitudePerPixel;
+        _projectVector = ProjectVector;
     }
 
     public double LongitudePerPixel { get; }
@@ -54,16 +56,15 @@ public sealed class EquirectangularProjection : Projection
     }
 
     public override void ProjectDirections(ReadOnlySpan<float> dx, ReadOnlySpan<float> dy, ReadOnlySpan<float> dz,
-        Span<float> x, Span<float> y, Span<float> radianceScale)
+        Span<float> x, Span<float> y, Span<float> radianceScale) =>
+        ForEachVector(dx, dy, dz, x, y, radianceScale, _projectVector);
+
+    private void ProjectVector(Vector<float> dx, Vector<float> dy, Vector<float> dz, out Vector<float> x, out Vector<float> y, out Vector<float> radianceScale)
     {
-        float minimumCosine = _latitudePerPixel / 2;
-        for (int i = 0; i < dx.Length; i++)
-        {
-            float cosLatitude = MathF.Sqrt(dx[i] * dx[i] + dz[i] * dz[i]);
-            x[i] = _centreX + MathF.Atan2(dx[i], dz[i]) / _longitudePerPixel;
-            y[i] = _centreY - MathF.Atan2(dy[i], cosLatitude) / _latitudePerPixel;
-            radianceScale[i] = 1 / MathF.Max(cosLatitude, minimumCosine);
-        }
+        Vector<float> cosLatitude = Vector.SquareRoot(dx * dx + dz * dz);
+        x = new Vector<float>(_centreX) + VectorAngles.Atan2(dx, dz) / new Vector<float>(_longitudePerPixel);
+        y = new Vector<float>(_centreY) - VectorAngles.Atan2(dy, cosLatitude) / new Vector<float>(_latitudePerPixel);
+        radianceScale = Vector<float>.One / Vector.Max(cosLatitude, new Vector<float>(_latitudePerPixel / 2));
     }
 
     public override void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz)

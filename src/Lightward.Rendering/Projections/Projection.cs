@@ -50,6 +50,39 @@ public abstract class Projection
     public abstract void ProjectDirections(ReadOnlySpan<float> dx, ReadOnlySpan<float> dy, ReadOnlySpan<float> dz,
         Span<float> x, Span<float> y, Span<float> radianceScale);
 
+    /// <summary>A projection's per-star mapping for one vector of directions.</summary>
+    protected delegate void VectorMapping(Vector<float> dx, Vector<float> dy, Vector<float> dz, out Vector<float> x, out Vector<float> y, out Vector<float> radianceScale);
+
+    /// <summary>
+    /// Runs <paramref name="mapping"/> over the directions a vector at a time. The last vector overlaps the one before
+    /// it (those stars are mapped twice, to the same values); fewer directions than a vector are padded.
+    /// </summary>
+    protected static void ForEachVector(ReadOnlySpan<float> dx, ReadOnlySpan<float> dy, ReadOnlySpan<float> dz,
+        Span<float> x, Span<float> y, Span<float> radianceScale, VectorMapping mapping)
+    {
+        int lanes = Vector<float>.Count, count = dx.Length;
+        if (count == 0) return;
+        if (count < lanes)
+        {
+            Span<float> padded = stackalloc float[6 * lanes];
+            padded.Clear();
+            Span<float> px = padded[..lanes], py = padded[lanes..(2 * lanes)], pz = padded[(2 * lanes)..(3 * lanes)];
+            Span<float> outX = padded[(3 * lanes)..(4 * lanes)], outY = padded[(4 * lanes)..(5 * lanes)], outScale = padded[(5 * lanes)..];
+            dx.CopyTo(px); dy.CopyTo(py); dz.CopyTo(pz);
+            ForEachVector(px, py, pz, outX, outY, outScale, mapping);
+            outX[..count].CopyTo(x); outY[..count].CopyTo(y); outScale[..count].CopyTo(radianceScale);
+            return;
+        }
+        for (int start = 0; ; start += lanes)
+        {
+            int at = Math.Min(start, count - lanes);
+            mapping(new Vector<float>(dx[at..]), new Vector<float>(dy[at..]), new Vector<float>(dz[at..]),
+                out Vector<float> vx, out Vector<float> vy, out Vector<float> scale);
+            vx.CopyTo(x[at..]); vy.CopyTo(y[at..]); scale.CopyTo(radianceScale[at..]);
+            if (at == count - lanes) return;
+        }
+    }
+
     /// <summary>Unit directions (camera axes) through the centres of one row's pixels; NaN where the image shows no direction.</summary>
     public abstract void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz);
 
