@@ -7,8 +7,9 @@ namespace Lightward.Rendering;
 /// <summary>
 /// Renders one frame, CPU only: observer → optics → projection → background → layers rasterised → exposure → stars →
 /// layers composited → tone map → overlays (see <see cref="Render(Scene, Observer, Camera, RgbaImage)"/>); a frame of
-/// stars alone is splatted and tone-mapped in one pass. Keeps its buffers between frames, so a steady stream of
-/// same-sized frames does not allocate; not safe to call from two threads at once (use one renderer per thread).
+/// stars alone is splatted and tone-mapped in one pass, and a frame with layers is splatted, composited and
+/// tone-mapped band by band in one. Keeps its buffers between frames, so a steady stream of same-sized frames does
+/// not allocate; not safe to call from two threads at once (use one renderer per thread).
 /// Output is identical for any thread count: every parallel stage gives each thread its own rows or its own stars.
 /// </summary>
 public sealed class FrameRenderer
@@ -19,7 +20,11 @@ public sealed class FrameRenderer
     private readonly CosmicBackgroundPainter _background = new();
     private readonly ExposureMeter _meter = new();
     private readonly ParallelOptions _parallel;
-    private readonly Action<int> _toneMapBand;
+    private readonly Func<HdrFrame> _rentBandBuffer;
+    private readonly Func<int, ParallelLoopState, HdrFrame, HdrFrame> _compositeAndToneMapBand;
+    private readonly Action<HdrFrame> _returnBandBuffer;
+    /// <summary>Band-sized HDR buffers, one per thread of the composite-and-tone-map pass: all zero and unmarked between bands.</summary>
+    private readonly Stack<HdrFrame> _bandBuffers = new();
     private FrameContext? _frame;
     private Camera? _projectionCamera;
     private Projection? _projection;
@@ -31,7 +36,9 @@ public sealed class FrameRenderer
     public FrameRenderer(int maxThreads = -1)
     {
         _parallel = new ParallelOptions { MaxDegreeOfParallelism = maxThreads };
-        _toneMapBand = ToneMapBand;
+        _rentBandBuffer = RentBandBuffer;
+        _compositeAndToneMapBand = CompositeAndToneMapBand;
+        _returnBandBuffer = ReturnBandBuffer;
     }
 
     /// <summary>HDR layers drawn in order after the stars (bodies, the grid of space).</summary>
@@ -64,8 +71,7 @@ public sealed class FrameRenderer
         else
         {
             SplatStars(frame);
-            CompositeLayers(frame);
-            ToneMap(frame);
+            CompositeLayersAndToneMap(frame);
         }
         foreach (IOverlay overlay in Overlays) overlay.Draw(frame);
     }
@@ -133,8 +139,15 @@ public sealed class FrameRenderer
     /// <summary>Nothing but stars to draw: no background glow, no layers.</summary>
     private bool StarsAlone => !_backgroundPainted && Layers.Count == 0;
 
-    /// <summary>Stars: point-spread splats into the HDR frame, footprints sized by exposed flux.</summary>
-    private void SplatStars(FrameContext frame) => _splatter.Splat(frame.Hdr, frame.ExposureScale, _parallel);
+    /// <summary>
+    /// Stars: point-spread splats, footprints sized by exposed flux — into the HDR frame when the background lit all
+    /// of it, else binned here and splatted band by band into the composite pass's band buffers.
+    /// </summary>
+    private void SplatStars(FrameContext frame)
+    {
+        if (frame.Hdr.WhollyTouched) _splatter.Splat(frame.Hdr, frame.ExposureScale, _parallel);
+        else _splatter.BinForBands(frame.Hdr.Width, frame.Hdr.Height, frame.ExposureScale, _parallel);
+    }
 
     /// <summary>Stars alone: splatted tile by tile in cache and tone-mapped from there; the HDR frame stays zero.</summary>
     private void SplatStarsToDisplay(FrameContext frame)
@@ -143,25 +156,56 @@ public sealed class FrameRenderer
         _hdrIsZero = true;
     }
 
-    /// <summary>Layers, second pass: laid over the stars in order; each marks the pixels it changes, so the tone map need not read the rest.</summary>
-    private void CompositeLayers(FrameContext frame)
+    /// <summary>
+    /// Layers, second pass, then tone map, one row band at a time so that the band stays in cache between them: the
+    /// band's stars are splatted into a band-sized buffer, the layers are laid over them in order, each marking the
+    /// pixels it changes so the tone map need not read the rest, and the tone map turns HDR → tone curve → sRGB bytes,
+    /// written straight into the output image. A frame the background lit everywhere is streamed through in place
+    /// instead. Leaves the HDR frame and the band buffers zeroed for the next frame.
+    /// </summary>
+    private void CompositeLayersAndToneMap(FrameContext frame)
     {
-        foreach (IFrameLayer layer in Layers) layer.Composite(frame);
-    }
-
-    /// <summary>Tone map: HDR → tone curve → sRGB bytes, written straight into the output image; leaves the HDR buffer zeroed for the next frame.</summary>
-    private void ToneMap(FrameContext frame)
-    {
-        Parallel.For(0, (frame.Hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, _parallel, _toneMapBand);
+        try
+        {
+            Parallel.For(0, (frame.Hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, _parallel,
+                _rentBandBuffer, _compositeAndToneMapBand, _returnBandBuffer);
+        }
+        catch
+        {
+            // A band that failed half way may have left light in its buffer.
+            lock (_bandBuffers) _bandBuffers.Clear();
+            throw;
+        }
         frame.Hdr.WhollyTouched = false;
         _hdrIsZero = true;
     }
 
-    private unsafe void ToneMapBand(int band)
+    private unsafe HdrFrame CompositeAndToneMapBand(int band, ParallelLoopState _, HdrFrame buffer)
     {
         FrameContext frame = _frame!;
-        int firstRow = band * StarSplatter.BandHeight, endRow = Math.Min(frame.Hdr.Height, firstRow + StarSplatter.BandHeight);
+        HdrFrame hdr = frame.Hdr;
+        int firstRow = band * StarSplatter.BandHeight, endRow = Math.Min(hdr.Height, firstRow + StarSplatter.BandHeight);
+        bool inPlace = hdr.WhollyTouched;
+        HdrBand rows = inPlace ? new HdrBand(hdr, 0, firstRow, endRow) : new HdrBand(buffer, firstRow, firstRow, endRow);
+        if (!inPlace) _splatter.SplatBand(buffer, band);
+        foreach (IFrameLayer layer in Layers) layer.Composite(frame, rows);
         fixed (byte* pixels = frame.Image.Pixels)
-            ToneMapper.MapAndClearRows(frame.Hdr, frame.ExposureScale, (uint*)pixels, firstRow, endRow);
+            ToneMapper.MapAndClearRows(rows.Buffer, frame.ExposureScale, (uint*)pixels + (long)rows.Origin * hdr.Width, firstRow - rows.Origin, endRow - rows.Origin);
+        return buffer;
+    }
+
+    /// <summary>A band buffer for one thread of the pass, of the frame's width.</summary>
+    private HdrFrame RentBandBuffer()
+    {
+        int width = _frame!.Hdr.Width;
+        lock (_bandBuffers)
+            while (_bandBuffers.TryPop(out HdrFrame? buffer))
+                if (buffer.Width == width) return buffer;
+        return new HdrFrame(width, StarSplatter.BandHeight);
+    }
+
+    private void ReturnBandBuffer(HdrFrame buffer)
+    {
+        lock (_bandBuffers) _bandBuffers.Push(buffer);
     }
 }

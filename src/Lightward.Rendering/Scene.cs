@@ -11,7 +11,7 @@ public sealed record Scene(StarCatalog Sky, bool ShowCosmicBackground = true);
 /// <summary>
 /// Everything a layer needs to draw into one frame. Layers draw radiance in the HDR frame's units (a V = 0 star on
 /// the reference pixel sums to 1; an extended source adds radiance per steradian × <c>Projection.ReferencePixelSolidAngle</c>),
-/// may use <see cref="Parallel"/> with their own row bands, and must not keep the context past the call.
+/// may use <see cref="Parallel"/> with their own row bands while rasterising, and must not keep the context past the call.
 /// </summary>
 public sealed class FrameContext
 {
@@ -40,13 +40,33 @@ public sealed class FrameContext
 /// A stage that adds to the HDR frame in two passes (bodies, the grid of space). <see cref="Rasterize"/> runs before
 /// the exposure is metered: the layer works out what it shows, draws it into buffers of its own and adds the
 /// brightness of its surfaces to <see cref="FrameContext.SurfaceLevels"/>, so that what it shows is exposed for.
-/// <see cref="Composite"/> runs after the stars are splatted, with the exposure known: the layer lays its buffers over
-/// <see cref="FrameContext.Hdr"/> and marks every pixel group it changes (<see cref="HdrFrame.MarkTouched"/>).
+/// <see cref="Composite"/> runs after the stars are splatted, with the exposure known, once per row band: the layer
+/// lays its buffers over the band's rows, which hold the frame's light so far, and marks every pixel group it
+/// changes (<see cref="HdrBand.MarkTouched"/>); the band is tone-mapped while it is still in cache.
 /// </summary>
 public interface IFrameLayer
 {
     void Rasterize(FrameContext frame);
-    void Composite(FrameContext frame);
+
+    /// <summary>
+    /// Lays the layer over the rows of <paramref name="band"/>, writing no other row and only through the band (it
+    /// may be a buffer of its own, not <see cref="FrameContext.Hdr"/>). Bands are composited in parallel, each by one
+    /// thread, so a pixel's value must not depend on how the rows are split into bands.
+    /// </summary>
+    void Composite(FrameContext frame, HdrBand band);
+}
+
+/// <summary>
+/// Rows [<see cref="FirstRow"/>, <see cref="EndRow"/>) of the HDR frame, held in <see cref="Buffer"/> (the whole
+/// frame, or a band-sized buffer that stays in cache) whose row 0 is frame row <see cref="Origin"/>.
+/// </summary>
+public readonly record struct HdrBand(HdrFrame Buffer, int Origin, int FirstRow, int EndRow)
+{
+    /// <summary>Index in <see cref="Buffer"/>'s planes of the first pixel of frame row <paramref name="row"/>.</summary>
+    public int RowStart(int row) => (row - Origin) * Buffer.Width;
+
+    /// <summary>Marks columns [<paramref name="firstColumn"/>, <paramref name="endColumn"/>) of frame row <paramref name="row"/> (non-empty, inside the band) as touched.</summary>
+    public void MarkTouched(int row, int firstColumn, int endColumn) => Buffer.MarkTouched(row - Origin, firstColumn, endColumn);
 }
 
 /// <summary>A stage that draws onto the tone-mapped RGBA image (instrument overlays, labels).</summary>

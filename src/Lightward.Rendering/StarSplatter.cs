@@ -124,6 +124,19 @@ public sealed class StarSplatter
     }
 
     /// <summary>
+    /// Stage "splat stars" for a frame whose layers are composited band by band: bins the projected stars into tiles,
+    /// after which <see cref="SplatBand"/> adds each row band's stars into a buffer of that band's own.
+    /// </summary>
+    public void BinForBands(int width, int height, float exposureScale, ParallelOptions parallel) => Bin(width, height, exposureScale, parallel);
+
+    /// <summary>
+    /// Adds the stars of row band <paramref name="band"/> (rows from <paramref name="band"/> × <see cref="BandHeight"/>,
+    /// binned by <see cref="BinForBands"/>) into <paramref name="buffer"/>, whose row 0 is the band's first row,
+    /// marking the groups they touch: the same sums in the same order as <see cref="Splat"/>.
+    /// </summary>
+    public void SplatBand(HdrFrame buffer, int band) => SplatBandInto(buffer, band * BandHeight, band);
+
+    /// <summary>
     /// Adds one star's light (linear RGB flux, already scaled to radiance) centred at (x, y), touching only rows
     /// [<paramref name="firstRow"/>, <paramref name="endRow"/>) and columns [<paramref name="firstColumn"/>, <paramref name="endColumn"/>) (inside the frame).
     /// </summary>
@@ -420,14 +433,16 @@ public sealed class StarSplatter
     }
 
     /// <summary>One row band of the HDR frame, tile by tile: each tile's stars clipped to the tile.</summary>
-    private unsafe void SplatBandIntoFrame(int band)
+    private void SplatBandIntoFrame(int band) => SplatBandInto(_frame!, 0, band);
+
+    /// <summary>Row band <paramref name="band"/>'s stars, tile by tile, into <paramref name="target"/>, whose row 0 is image row <paramref name="originRow"/>.</summary>
+    private unsafe void SplatBandInto(HdrFrame target, int originRow, int band)
     {
-        HdrFrame frame = _frame!;
-        fixed (float* red = frame.Red, green = frame.Green, blue = frame.Blue)
-        fixed (byte* marks = frame.Touched)
+        fixed (float* red = target.Red, green = target.Green, blue = target.Blue)
+        fixed (byte* marks = target.Touched)
         {
-            SplatTarget target = FrameTarget(frame, red, green, blue, marks);
-            for (int tileColumn = 0; tileColumn < _tilesPerBand; tileColumn++) SplatTile(target, band, tileColumn, Tile(band, tileColumn));
+            var into = new SplatTarget(red, green, blue, marks, target.Width, target.GroupsPerRow, originRow, 0);
+            for (int tileColumn = 0; tileColumn < _tilesPerBand; tileColumn++) SplatTile(into, band, tileColumn, Tile(band, tileColumn));
         }
     }
 

@@ -11,7 +11,8 @@ namespace Lightward.Benchmarks;
 /// three bodies of ≥ 2,000 triangles each. <see cref="Bands"/> sets the sphere detail (4·b² − 4·b triangles each:
 /// 24 → 2,208; 48 → 9,024; 96 → 36,480) to show how the cost grows with the triangle count. The layer alone
 /// (bodies, grid) is timed on its own HDR frame; <see cref="FrameWithEmptyNearField"/> shows what any layer costs the
-/// frame before it draws anything (the frame then goes through the HDR buffer and a tone map of every touched pixel).
+/// frame before it draws anything (the frame then goes through the band-by-band composite pass, stars splatted into
+/// band buffers and tone-mapped from there, instead of the stars-only pass).
 /// </summary>
 [MemoryDiagnoser]
 public class NearFieldBenchmarks

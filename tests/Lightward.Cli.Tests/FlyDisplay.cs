@@ -20,27 +20,22 @@ public sealed class FlyDisplay : IDisposable
 
     public const string MissingToolsReason = "Xvfb or xdotool is not installed (apt-get install xvfb xauth xdotool); the window tests need them";
 
+    /// <summary>
+    /// Starts Xvfb on a display number it picks itself (-displayfd: it skips numbers in use and clears locks left by
+    /// servers that died) and waits for it to print that number.
+    /// </summary>
     public static FlyDisplay Start()
     {
-        for (int number = 97; number < 160; number++)
-        {
-            if (File.Exists($"/tmp/.X{number}-lock") || File.Exists($"/tmp/.X11-unix/X{number}")) continue;
-            var start = new ProcessStartInfo("Xvfb") { RedirectStandardError = true, RedirectStandardOutput = true };
-            foreach (string argument in new[] { $":{number}", "-screen", "0", "1280x720x24", "-nolisten", "tcp" }) start.ArgumentList.Add(argument);
-            var server = Process.Start(start)!;
-            _ = server.StandardError.ReadToEndAsync();
-            _ = server.StandardOutput.ReadToEndAsync();
-            var waited = Stopwatch.StartNew();
-            while (waited.Elapsed < TimeSpan.FromSeconds(15) && !server.HasExited)
-            {
-                if (File.Exists($"/tmp/.X11-unix/X{number}")) return new FlyDisplay(server, $":{number}");
-                Thread.Sleep(50);
-            }
-            // Another server took this number first (or it failed); try the next one.
-            if (!server.HasExited) server.Kill();
-            server.Dispose();
-        }
-        throw new InvalidOperationException("no free X display number between :97 and :159");
+        var start = new ProcessStartInfo("Xvfb") { RedirectStandardError = true, RedirectStandardOutput = true };
+        foreach (string argument in new[] { "-displayfd", "1", "-screen", "0", "1280x720x24", "-nolisten", "tcp" }) start.ArgumentList.Add(argument);
+        var server = Process.Start(start)!;
+        _ = server.StandardError.ReadToEndAsync();
+        Task<string?> number = server.StandardOutput.ReadLineAsync();
+        if (number.Wait(TimeSpan.FromSeconds(15)) && int.TryParse(number.Result, out int display))
+            return new FlyDisplay(server, $":{display}");
+        if (!server.HasExited) server.Kill();
+        server.Dispose();
+        throw new InvalidOperationException("Xvfb did not start");
     }
 
     /// <summary>Runs xdotool against this display and returns what it printed.</summary>
@@ -57,15 +52,25 @@ public sealed class FlyDisplay : IDisposable
         return output.Result;
     }
 
+    /// <summary>Stops the server with SIGTERM, so that it removes its lock file and socket, and kills it if it lingers.</summary>
     public void Dispose()
     {
         if (!_server.HasExited)
         {
-            _server.Kill();
-            _server.WaitForExit(5000);
+            _ = Kill(_server.Id, Terminate);
+            if (!_server.WaitForExit(5000))
+            {
+                _server.Kill();
+                _server.WaitForExit(5000);
+            }
         }
         _server.Dispose();
     }
+
+    private const int Terminate = 15; // SIGTERM
+
+    [System.Runtime.InteropServices.DllImport("libc", EntryPoint = "kill")]
+    private static extern int Kill(int processId, int signal);
 
     private static bool OnPath(string program) =>
         (Environment.GetEnvironmentVariable("PATH") ?? "").Split(':', StringSplitOptions.RemoveEmptyEntries).Any(folder => File.Exists(Path.Combine(folder, program)));

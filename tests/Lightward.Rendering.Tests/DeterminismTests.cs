@@ -103,11 +103,11 @@ public class DeterminismTests
         Assert.All(marked.Touched, t => Assert.Equal(0, t));
     }
 
-    /// <summary>A layer that draws nothing: it sends the frame down the path through the full HDR buffer.</summary>
+    /// <summary>A layer that draws nothing: it sends the frame down the layered path (stars splatted band by band into band buffers).</summary>
     private sealed class EmptyLayer : IFrameLayer
     {
         public void Rasterize(FrameContext frame) { }
-        public void Composite(FrameContext frame) { }
+        public void Composite(FrameContext frame, HdrBand band) { }
     }
 
     [Theory]
@@ -116,8 +116,8 @@ public class DeterminismTests
     public void Stars_alone_give_the_same_bytes_splatted_in_cache_as_through_the_HDR_frame(double rapidity, double fieldOfView)
     {
         // A frame of stars alone is splatted tile by tile and tone-mapped from cache; with any layer present it goes
-        // through the full HDR frame. Same sums in the same order, so the same bytes. 203 px wide: a partial tile and
-        // a partial pixel group at the right edge.
+        // through a band buffer per row band. Same sums in the same order, so the same bytes. 203 px wide: a partial
+        // tile and a partial pixel group at the right edge.
         var camera = new Camera(ProjectionKind.Perspective, 203, 150, fieldOfView * Math.PI / 180, 0, Exposure.Auto);
         var scene = new Scene(Sky);
         var observer = new Observer(ShipState.AtRest(default) with

@@ -161,7 +161,7 @@ public sealed class BodyImager
     }
 
     /// <summary>Emits a piece, split into four while a side's image strays from its arc (its sides' middles seen as given).</summary>
-    private void Emit(List<SkyTriangle> output, in Piece p, PointSight seenAB, PointSight seenBC, PointSight seenCA, Vector3 faceTint, byte outline, double pixelsPerRadian, int depth)
+    private void Emit(List<SkyTriangle> output, in Piece p, in PointSight seenAB, in PointSight seenBC, in PointSight seenCA, Vector3 faceTint, byte outline, double pixelsPerRadian, int depth)
     {
         if (depth < MaxSplitDepth
             && (NeedsSplit(p.A.Seen, p.B.Seen, seenAB, pixelsPerRadian) || NeedsSplit(p.B.Seen, p.C.Seen, seenBC, pixelsPerRadian)
@@ -187,7 +187,7 @@ public sealed class BodyImager
     }
 
     /// <summary>A side must be split when its midpoint's image strays half a pixel off the great-circle arc, the arc is long, or D varies much.</summary>
-    private static bool NeedsSplit(PointSight from, PointSight to, PointSight middle, double pixelsPerRadian)
+    private static bool NeedsSplit(in PointSight from, in PointSight to, in PointSight middle, double pixelsPerRadian)
     {
         if ((from.Direction - to.Direction).LengthSquared > LongestChordSquared) return true;
         Vec3 plane = Vec3.Cross(from.Direction, to.Direction);

@@ -1,123 +1,282 @@
 using System.Numerics;
 using System.Runtime.CompilerServices;
+using System.Runtime.Intrinsics;
 
 namespace Lightward.Rendering.NearField;
 
 /// <summary>
-/// Draws anti-aliased lines one pixel wide into the HDR frame: along each segment's major axis, every column (or
+/// Draws anti-aliased lines one pixel wide into rows of the HDR frame: along each segment's major axis, every column (or
 /// row) whose centre falls in the half-open span [start, end) lays the colour over the two or three pixels across,
 /// with a coverage given by a tent of the perpendicular distance (so a line looks the same at any slope and
 /// consecutive segments never paint a joint twice). Lines are laid over what is there rather than added to it, so
 /// where many cross — a lattice crowded ahead of a fast ship — the picture takes the lines' colour instead of
 /// piling up to white. A line point farther than the surface drawn in a pixel is hidden by it; pixels that show no
-/// sky (outside a dome's disc) stay dark. Segments are first sorted into row bands (in their fixed order); the bands
-/// are drawn in parallel, each by one thread, so the result does not depend on scheduling. Every pixel written is
-/// marked touched in the frame. Keeps its band lists between frames.
+/// sky (outside a dome's disc) stay dark. Segments are first sorted into row bands (in their fixed order); any range
+/// of rows is then drawn band by band, each pixel by the segments of its own band in that order, so the result does
+/// not depend on how the rows are split between threads. Each row is drawn eight neighbouring pixels at a time.
+/// Every pixel written is marked touched. Keeps its band lists between frames.
 /// </summary>
 public sealed class LineDrawer
 {
-    private const int BandRows = 32;
+    /// <summary>Rows per band: the frame renderer's band, so that each band it composites reads one list.</summary>
+    private const int BandRows = StarSplatter.BandHeight;
     /// <summary>Rows beyond a segment's ends that its tent can reach.</summary>
     private const int Reach = 2;
 
     private readonly List<List<int>> _bands = [];
+    private readonly List<Stroke> _strokes = [];
+    private SkyRasterizer? _surfaces;
 
     /// <summary>
-    /// Draws <paramref name="segments"/> into <paramref name="frame"/>, behind or in front of the surfaces in
-    /// <paramref name="surfaces"/>, with their colours multiplied by <paramref name="colourScale"/>.
+    /// Sorts <paramref name="segments"/> into row bands, to be drawn behind or in front of the surfaces in
+    /// <paramref name="surfaces"/> (already drawn); they are drawn from there until the next call.
     /// </summary>
-    public void Draw(List<PixelSegment> segments, HdrFrame frame, SkyRasterizer surfaces, float colourScale, ParallelOptions parallel)
+    public void SortIntoBands(List<PixelSegment> segments, SkyRasterizer surfaces)
     {
-        if (frame.Width != surfaces.Width || frame.Height != surfaces.Height) throw new ArgumentException("frame and surface layer differ in size", nameof(surfaces));
-        int bandCount = (frame.Height + BandRows - 1) / BandRows;
+        _surfaces = surfaces;
+        _strokes.Clear();
+        int height = surfaces.Height;
+        int bandCount = (height + BandRows - 1) / BandRows;
         while (_bands.Count < bandCount) _bands.Add([]);
         for (int band = 0; band < bandCount; band++) _bands[band].Clear();
-        for (int s = 0; s < segments.Count; s++)
+        foreach (PixelSegment segment in segments)
         {
-            PixelSegment segment = segments[s];
             float low = MathF.Min(segment.Y0, segment.Y1) - Reach, high = MathF.Max(segment.Y0, segment.Y1) + Reach;
-            if (!(high >= 0 && low < frame.Height)) continue;
+            if (!(high >= 0 && low < height) || !Stroke.TryPrepare(segment, surfaces, out Stroke stroke)) continue;
             int first = Math.Max(0, (int)low / BandRows), last = Math.Min(bandCount - 1, (int)high / BandRows);
-            for (int band = first; band <= last; band++) _bands[band].Add(s);
-        }
-        Parallel.For(0, bandCount, parallel, band =>
-        {
-            int top = band * BandRows, bottom = Math.Min(frame.Height, top + BandRows);
-            foreach (int s in _bands[band]) DrawSegment(segments[s], colourScale, frame, surfaces, top, bottom);
-        });
-    }
-
-    private static void DrawSegment(in PixelSegment s, float colourScale, HdrFrame frame, SkyRasterizer surfaces, int top, int bottom)
-    {
-        float dx = s.X1 - s.X0, dy = s.Y1 - s.Y0;
-        float length = MathF.Sqrt(dx * dx + dy * dy);
-        if (!(length > 0)) return;
-        bool alongX = MathF.Abs(dx) >= MathF.Abs(dy);
-        // Major-axis coordinate of the ends, minor-axis offset, and the factor turning a minor-axis offset into a perpendicular distance.
-        float start = alongX ? s.X0 : s.Y0, end = alongX ? s.X1 : s.Y1;
-        float minorStart = alongX ? s.Y0 : s.X0, minorChange = alongX ? dy : dx;
-        float perpendicular = (alongX ? MathF.Abs(dx) : MathF.Abs(dy)) / length;
-        float low = MathF.Min(start, end), high = MathF.Max(start, end);
-        int majorLimit = alongX ? frame.Width : frame.Height;
-        int first = Math.Max(0, (int)MathF.Ceiling(low - 0.5f)), last = Math.Min(majorLimit - 1, (int)MathF.Ceiling(high - 0.5f) - 1);
-        if (!alongX)
-        {
-            first = Math.Max(first, top);
-            last = Math.Min(last, bottom - 1);
-        }
-        else if (minorChange != 0)
-        {
-            // Only the columns where the line is within reach of this band's rows.
-            float majorAtTop = start + (top - Reach - minorStart) / minorChange * (end - start);
-            float majorAtBottom = start + (bottom + Reach - minorStart) / minorChange * (end - start);
-            first = Math.Max(first, (int)MathF.Floor(MathF.Min(majorAtTop, majorAtBottom)));
-            last = Math.Min(last, (int)MathF.Ceiling(MathF.Max(majorAtTop, majorAtBottom)));
-        }
-        if (first > last) return;
-        float inverseSpan = 1 / (end - start);
-        Vector3 colour0 = colourScale * s.Colour0, colourChange = colourScale * (s.Colour1 - s.Colour0);
-        float depthChange = s.Depth1 - s.Depth0;
-        // Most segments pass no surface and cross only pixels that show sky: those skip the per-pixel depth and sky
-        // tests, which keeps a pixel's memory traffic to its three colour planes.
-        var pixels = new LinePixels(frame, surfaces, alongX, top, bottom,
-            surfaces.MayHaveSurfaceIn(s.X0, s.Y0, s.X1, s.Y1, Reach), surfaces.Directions.HasBlankPixels);
-        for (int major = first; major <= last; major++)
-        {
-            float t = (major + 0.5f - start) * inverseSpan;
-            float minor = minorStart + t * minorChange;
-            Vector3 colour = colour0 + t * colourChange;
-            float lineDepth = s.Depth0 + t * depthChange;
-            // The pixel whose centre lies just below the line, and the line's offset from that centre (0 … 1): the
-            // tent reaches the pixels either side, and one more on each side when the line is steep enough.
-            int nearest = (int)MathF.Floor(minor - 0.5f);
-            float offset = minor - (nearest + 0.5f);
-            pixels.Add(major, nearest - 1, 1 - (1 + offset) * perpendicular, colour, lineDepth);
-            pixels.Add(major, nearest, 1 - offset * perpendicular, colour, lineDepth);
-            pixels.Add(major, nearest + 1, 1 - (1 - offset) * perpendicular, colour, lineDepth);
-            pixels.Add(major, nearest + 2, 1 - (2 - offset) * perpendicular, colour, lineDepth);
+            for (int band = first; band <= last; band++) _bands[band].Add(_strokes.Count);
+            _strokes.Add(stroke);
         }
     }
 
-    /// <summary>Lays tent-weighted colour over the pixels of one band, by major and minor coordinate.</summary>
-    private readonly ref struct LinePixels(HdrFrame frame, SkyRasterizer surfaces, bool alongX, int top, int bottom, bool testDepth, bool testSky)
+    /// <summary>Draws the sorted segments into the rows of <paramref name="rows"/>, with their colours multiplied by <paramref name="colourScale"/>.</summary>
+    public unsafe void Draw(HdrBand rows, float colourScale)
     {
-        private readonly float[] _red = frame.Red, _green = frame.Green, _blue = frame.Blue, _skyX = surfaces.Directions.X;
-        private readonly byte[] _touched = frame.Touched;
-        private readonly int _width = frame.Width, _groupsPerRow = frame.GroupsPerRow;
+        SkyRasterizer surfaces = _surfaces ?? throw new InvalidOperationException("no segments sorted yet");
+        HdrFrame buffer = rows.Buffer;
+        if (buffer.Width != surfaces.Width || rows.EndRow > surfaces.Height || rows.EndRow - rows.Origin > buffer.Height || rows.FirstRow < rows.Origin)
+            throw new ArgumentException("rows and surface layer differ in size", nameof(rows));
+        ReadOnlySpan<Stroke> strokes = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_strokes);
+        fixed (float* red = buffer.Red, green = buffer.Green, blue = buffer.Blue, skyX = surfaces.Directions.X, depth = surfaces.Depths)
+        fixed (byte* touched = buffer.Touched)
+        for (int band = rows.FirstRow / BandRows; band * BandRows < rows.EndRow; band++)
+        {
+            int top = Math.Max(rows.FirstRow, band * BandRows), bottom = Math.Min(rows.EndRow, (band + 1) * BandRows);
+            foreach (int k in _bands[band])
+            {
+                ref readonly Stroke stroke = ref strokes[k];
+                // Most segments pass no surface and cross only pixels that show sky: those skip the per-pixel depth and
+                // sky tests, which keeps a pixel's memory traffic to its three colour planes.
+                var line = new Line(stroke, colourScale, new Pixels(red, green, blue, touched, skyX, depth, rows),
+                    stroke.MayMeetSurface(surfaces, top, bottom), surfaces.Directions.HasBlankPixels);
+                if (line.TestsPixels) line.Draw<EveryPixelTested>(top, bottom);
+                else line.Draw<NoPixelTested>(top, bottom);
+            }
+        }
+    }
 
-        /// <summary>One pixel across the line, if covered, inside the band and the image, not behind a surface and showing sky.</summary>
+    /// <summary>
+    /// A segment ready to draw, parametrised along its major axis (x when it runs more across than down, else y): at
+    /// major coordinate u (a pixel centre) the line is at t = (u − start) / (end − start), its minor coordinate,
+    /// colour and depth interpolated there. <see cref="First"/>…<see cref="Last"/> are the columns (or rows) whose
+    /// centres lie in the half-open span [start, end); <see cref="Perpendicular"/> turns a minor-axis offset into a
+    /// perpendicular distance.
+    /// </summary>
+    private readonly record struct Stroke(PixelSegment Segment, bool AlongX, int First, int Last, float Start, float InverseSpan,
+        float MinorStart, float MinorChange, float Perpendicular, bool NearSurface)
+    {
+        public static bool TryPrepare(in PixelSegment s, SkyRasterizer surfaces, out Stroke stroke)
+        {
+            stroke = default;
+            float dx = s.X1 - s.X0, dy = s.Y1 - s.Y0;
+            float length = MathF.Sqrt(dx * dx + dy * dy);
+            if (!(length > 0)) return false;
+            bool alongX = MathF.Abs(dx) >= MathF.Abs(dy);
+            float start = alongX ? s.X0 : s.Y0, end = alongX ? s.X1 : s.Y1;
+            float low = MathF.Min(start, end), high = MathF.Max(start, end);
+            int majorLimit = alongX ? surfaces.Width : surfaces.Height;
+            int first = (int)Math.Max(0, MathF.Ceiling(low - 0.5f)), last = (int)Math.Min(majorLimit - 1, MathF.Ceiling(high - 0.5f) - 1);
+            if (first > last) return false;
+            stroke = new Stroke(s, alongX, first, last, start, 1 / (end - start), alongX ? s.Y0 : s.X0, alongX ? dy : dx,
+                (alongX ? MathF.Abs(dx) : MathF.Abs(dy)) / length, surfaces.MayHaveSurfaceIn(s.X0, s.Y0, s.X1, s.Y1, Reach));
+            return true;
+        }
+
+        /// <summary>False when no surface was drawn within reach of the part of the segment that rows [<paramref name="top"/>, <paramref name="bottom"/>) show.</summary>
+        public bool MayMeetSurface(SkyRasterizer surfaces, int top, int bottom)
+        {
+            if (!NearSurface) return false;
+            PixelSegment s = Segment;
+            float dy = s.Y1 - s.Y0, x0 = s.X0, x1 = s.X1;
+            if (dy != 0)
+            {
+                float t0 = Math.Clamp((top - Reach - s.Y0) / dy, 0, 1), t1 = Math.Clamp((bottom + Reach - s.Y0) / dy, 0, 1);
+                x0 = s.X0 + t0 * (s.X1 - s.X0);
+                x1 = s.X0 + t1 * (s.X1 - s.X0);
+            }
+            return surfaces.MayHaveSurfaceIn(x0, top, x1, bottom - 1, Reach);
+        }
+    }
+
+    /// <summary>The band's pixels as the drawing loops address them: colour planes and marks from the band's first row, sky directions and surface depths of the whole frame (pinned by the caller).</summary>
+    private readonly unsafe struct Pixels(float* red, float* green, float* blue, byte* touched, float* skyX, float* depth, HdrBand rows)
+    {
+        public readonly float* Red = red, Green = green, Blue = blue, SkyX = skyX, Depth = depth;
+        public readonly byte* Touched = touched;
+        public readonly int Width = rows.Buffer.Width, GroupsPerRow = rows.Buffer.GroupsPerRow, Origin = rows.Origin;
+    }
+
+    /// <summary>Whether a line's pixels are each tested for a surface in front and for showing sky: a type argument, so that the common untested loop carries no trace of the tests.</summary>
+    private interface IPixelTests
+    {
+        static abstract bool Enabled { get; }
+    }
+
+    private readonly struct EveryPixelTested : IPixelTests
+    {
+        public static bool Enabled => true;
+    }
+
+    private readonly struct NoPixelTested : IPixelTests
+    {
+        public static bool Enabled => false;
+    }
+
+    /// <summary>One stroke being drawn into one band: pixels are laid a row at a time, eight neighbours at once, with a coverage of 1 − (perpendicular distance) where positive.</summary>
+    private readonly unsafe ref struct Line(in Stroke stroke, float colourScale, Pixels pixels, bool testDepth, bool testSky)
+    {
+        private readonly bool _alongX = stroke.AlongX;
+        private readonly int _first = stroke.First, _last = stroke.Last;
+        private readonly float _start = stroke.Start, _inverseSpan = stroke.InverseSpan, _minorStart = stroke.MinorStart, _minorChange = stroke.MinorChange;
+        private readonly float _perpendicular = stroke.Perpendicular;
+        private readonly float _lowY = MathF.Min(stroke.Segment.Y0, stroke.Segment.Y1), _highY = MathF.Max(stroke.Segment.Y0, stroke.Segment.Y1);
+        private readonly Vector3 _colour0 = colourScale * stroke.Segment.Colour0, _colourChange = colourScale * (stroke.Segment.Colour1 - stroke.Segment.Colour0);
+        private readonly float _depth0 = stroke.Segment.Depth0, _depthChange = stroke.Segment.Depth1 - stroke.Segment.Depth0;
+        private readonly int _width = pixels.Width;
+
+        /// <summary>Whether each pixel must be tested for a surface in front of the line or for showing no sky.</summary>
+        public bool TestsPixels => testDepth || testSky;
+
+        /// <summary>The stroke's pixels in rows [<paramref name="top"/>, <paramref name="bottom"/>).</summary>
+        public void Draw<TTests>(int top, int bottom) where TTests : struct, IPixelTests
+        {
+            if (_alongX) DrawRowsOfColumns<TTests>(top, bottom);
+            else DrawRows<TTests>(Math.Max(_first, top), Math.Min(_last, bottom - 1));
+        }
+
+        /// <summary>A line along x: rows [<paramref name="top"/>, <paramref name="bottom"/>), each over the columns where the line passes within reach of it.</summary>
+        private void DrawRowsOfColumns<TTests>(int top, int bottom) where TTests : struct, IPixelTests
+        {
+            int firstRow = ToInt(Math.Max(top, MathF.Floor(_lowY) - Reach)), lastRow = ToInt(Math.Min(bottom - 1, MathF.Ceiling(_highY) + Reach));
+            // Major change per unit of minor; the tent reaches at most 1 / perpendicular ≤ √2 pixels across.
+            float slope = _minorChange * _inverseSpan, inverseSlope = 1 / slope;
+            for (int y = firstRow; y <= lastRow; y++)
+            {
+                float centre = y + 0.5f;
+                int from = _first, to = _last;
+                if (slope != 0)
+                {
+                    // Major coordinates where the line is 1.5 px above and below this row's centre, widened by a pixel for rounding.
+                    float u0 = _start + (centre - 1.5f - _minorStart) * inverseSlope, u1 = _start + (centre + 1.5f - _minorStart) * inverseSlope;
+                    from = ToInt(Math.Max(_first, MathF.Floor(MathF.Min(u0, u1)) - 1));
+                    to = ToInt(Math.Min(_last, MathF.Ceiling(MathF.Max(u0, u1)) + 1));
+                }
+                else if (!(MathF.Abs(centre - _minorStart) < 1.5f)) continue;
+                for (int x = from; x <= to; x += VectorLanes.Count)
+                {
+                    Vector256<float> t = (Vector256.Create((float)x) + VectorLanes.Centres - Vector256.Create(_start)) * Vector256.Create(_inverseSpan);
+                    Vector256<float> minor = Vector256.Create(_minorStart) + t * Vector256.Create(_minorChange);
+                    Lay<TTests>(y, x, to, Vector256.Create(centre) - minor, t);
+                }
+            }
+        }
+
+        /// <summary>A line along y: rows [<paramref name="first"/>, <paramref name="last"/>], each over the pixels either side of where the line crosses it.</summary>
+        private void DrawRows<TTests>(int first, int last) where TTests : struct, IPixelTests
+        {
+            for (int y = first; y <= last; y++)
+            {
+                float t = (y + 0.5f - _start) * _inverseSpan;
+                float minor = _minorStart + t * _minorChange;
+                // The pixel whose centre lies just below the line, and its neighbours: the tent reaches no farther.
+                float nearest = MathF.Floor(minor - 0.5f);
+                if (!(nearest + 2 >= 0 && nearest - 1 < _width)) continue;
+                int pixel = ToInt(nearest), from = Math.Max(0, pixel - 1), to = Math.Min(_width - 1, pixel + 2);
+                Lay<TTests>(y, from, to, Vector256.Create((float)from) + VectorLanes.Centres - Vector256.Create(minor), Vector256.Create(t));
+            }
+        }
+
+        /// <summary>
+        /// Pixels [<paramref name="x"/>, <paramref name="x"/> + 8) ∩ [.., <paramref name="to"/>] of row
+        /// <paramref name="y"/>, each <paramref name="offset"/> pixels across from the line at parameter <paramref name="t"/>.
+        /// </summary>
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        public void Add(int major, int minor, float weight, Vector3 colour, float lineDepth)
+        private void Lay<TTests>(int y, int x, int to, Vector256<float> offset, Vector256<float> t) where TTests : struct, IPixelTests
         {
-            if (weight <= 0) return;
-            int x = alongX ? major : minor, y = alongX ? minor : major;
-            if (y < top || y >= bottom || (uint)x >= (uint)_width) return;
-            int i = y * _width + x;
-            if ((testDepth && lineDepth > surfaces.DepthAt(i)) || (testSky && float.IsNaN(_skyX[i]))) return;
-            _red[i] += weight * (colour.X - _red[i]);
-            _green[i] += weight * (colour.Y - _green[i]);
-            _blue[i] += weight * (colour.Z - _blue[i]);
-            _touched[y * _groupsPerRow + x / HdrFrame.GroupWidth] = 1;
+            Vector256<float> weight = Vector256<float>.One - Vector256.Abs(offset) * Vector256.Create(_perpendicular);
+            Vector256<float> covered = Vector256.GreaterThan(weight, Vector256<float>.Zero)
+                & Vector256.LessThanOrEqual(Vector256.Create(x) + VectorLanes.Indices, Vector256.Create(to)).AsSingle();
+            // Index of the first lane in the frame (depth, sky) and in the band's buffer (colour).
+            int pixel = y * _width + x, i = pixel - pixels.Origin * _width;
+            if (TTests.Enabled) covered &= Visible(pixel, Math.Min(VectorLanes.Count, _width - x), Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
+            uint lanes = covered.ExtractMostSignificantBits();
+            if (lanes == 0) return;
+            Vector256<float> red = Vector256.Create(_colour0.X) + t * Vector256.Create(_colourChange.X);
+            Vector256<float> green = Vector256.Create(_colour0.Y) + t * Vector256.Create(_colourChange.Y);
+            Vector256<float> blue = Vector256.Create(_colour0.Z) + t * Vector256.Create(_colourChange.Z);
+            if (x + VectorLanes.Count <= _width)
+            {
+                Over(pixels.Red + i, weight, red, covered);
+                Over(pixels.Green + i, weight, green, covered);
+                Over(pixels.Blue + i, weight, blue, covered);
+            }
+            else
+                // The last few pixels of a row: one at a time, so nothing past the row's end is read or written.
+                for (int lane = 0; lane < _width - x; lane++)
+                {
+                    if ((lanes >> lane & 1) == 0) continue;
+                    float w = weight.GetElement(lane);
+                    pixels.Red[i + lane] += w * (red.GetElement(lane) - pixels.Red[i + lane]);
+                    pixels.Green[i + lane] += w * (green.GetElement(lane) - pixels.Green[i + lane]);
+                    pixels.Blue[i + lane] += w * (blue.GetElement(lane) - pixels.Blue[i + lane]);
+                }
+            byte* rowMarks = pixels.Touched + (y - pixels.Origin) * pixels.GroupsPerRow;
+            rowMarks[(uint)(x + BitOperations.TrailingZeroCount(lanes)) / HdrFrame.GroupWidth] = 1;
+            rowMarks[(uint)(x + 31 - BitOperations.LeadingZeroCount(lanes)) / HdrFrame.GroupWidth] = 1;
         }
+
+        /// <summary>Lanes from frame pixel <paramref name="i"/> (<paramref name="count"/> of them inside the row) not behind a surface (line depth <paramref name="lineDepth"/>) and showing sky.</summary>
+        private Vector256<float> Visible(int i, int count, Vector256<float> lineDepth)
+        {
+            Vector256<float> visible = Vector256<float>.AllBitsSet;
+            if (testDepth) visible = Vector256.LessThanOrEqual(lineDepth, Lanes(pixels.Depth + i, count));
+            if (testSky)
+            {
+                Vector256<float> skyX = Lanes(pixels.SkyX + i, count);
+                visible &= Vector256.Equals(skyX, skyX);
+            }
+            return visible;
+        }
+
+        /// <summary>Eight values from <paramref name="from"/>, of which the first <paramref name="count"/> exist (the rest read as +∞).</summary>
+        private static Vector256<float> Lanes(float* from, int count)
+        {
+            if (count == VectorLanes.Count) return Vector256.Load(from);
+            Span<float> lanes = stackalloc float[VectorLanes.Count];
+            lanes.Fill(float.PositiveInfinity);
+            new ReadOnlySpan<float>(from, count).CopyTo(lanes);
+            return Vector256.Create<float>(lanes);
+        }
+
+        /// <summary>plane ← plane + weight · (colour − plane) in the covered lanes.</summary>
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        private static void Over(float* plane, Vector256<float> weight, Vector256<float> colour, Vector256<float> covered)
+        {
+            Vector256<float> old = Vector256.Load(plane);
+            Vector256.ConditionalSelect(covered, old + weight * (colour - old), old).Store(plane);
+        }
+
+        /// <summary>A float already clamped to a pixel range, as an int, without the checks of a C# cast.</summary>
+        private static int ToInt(float value) => float.ConvertToIntegerNative<int>(value);
     }
 }

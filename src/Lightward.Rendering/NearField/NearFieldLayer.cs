@@ -9,8 +9,10 @@ public readonly record struct BodyView(NearFieldBody Body, BodyAppearance? Appea
 /// <summary>
 /// The near field as a frame layer: bodies seen at their retarded positions, drawn as opaque surfaces into buffers of
 /// their own with their own depth buffer (and metered), then laid over the stars, and the grid of space drawn in front
-/// of or behind them at a brightness relative to the display. Keeps its buffers between frames (they are rebuilt
-/// only when the projection changes); the surfaces stay in them from one frame's rasterising to the next.
+/// of or behind them at a brightness relative to the display. The bodies and the grid are worked out side by side;
+/// both are laid over the frame one row band at a time, as the renderer hands the bands out. Keeps its buffers
+/// between frames (they are rebuilt only when the projection changes); the surfaces stay in them from one frame's
+/// rasterising to the next.
 /// </summary>
 public sealed class NearFieldLayer : IFrameLayer
 {
@@ -22,7 +24,8 @@ public sealed class NearFieldLayer : IFrameLayer
 
     private readonly BodyImager[] _imagers;
     private readonly GridImager _gridImager = new();
-    private readonly List<SkyTriangle> _triangles = [];
+    /// <summary>The bodies' triangles joined in body order (grown as needed, reused).</summary>
+    private SkyTriangle[] _triangles = [];
     private readonly List<SkyTriangle>[] _bodyTriangles;
     private readonly List<PixelSegment> _segments = [];
     private readonly LineDrawer _lineDrawer = new();
@@ -71,19 +74,34 @@ public sealed class NearFieldLayer : IFrameLayer
         _rasterizer!.AddSurfaceLevels(frame.SurfaceLevels);
     }
 
-    public void Composite(FrameContext frame) => Composite(frame.Hdr, frame.ExposureScale, frame.Parallel);
+    public void Composite(FrameContext frame, HdrBand band) => Composite(band, frame.ExposureScale);
 
     /// <summary>Both passes at once, for pictures of the near field alone: bodies and grid drawn over <paramref name="hdr"/>, the grid for exposure scale <paramref name="exposureScale"/>.</summary>
     public void Draw(HdrFrame hdr, Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel, float exposureScale = 1)
     {
         Rasterize(projection, ship, cameraToShip, parallel);
-        Composite(hdr, exposureScale, parallel);
+        Parallel.For(0, (hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, parallel, band =>
+            Composite(new HdrBand(hdr, 0, band * StarSplatter.BandHeight, Math.Min(hdr.Height, (band + 1) * StarSplatter.BandHeight)), exposureScale));
     }
 
-    /// <summary>Bodies → sky triangles → the surface layer's own buffers; the grid's lines → pixel segments.</summary>
+    /// <summary>
+    /// Bodies → sky triangles → the surface layer's own buffers, and beside them (the two share nothing) the grid's
+    /// lines → pixel segments; then the segments are sorted into row bands, knowing where the surfaces are.
+    /// </summary>
     private void Rasterize(Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
     {
         SkyRasterizer rasterizer = RasterizerFor(projection);
+        _segments.Clear();
+        Parallel.Invoke(parallel,
+            () => DrawBodies(rasterizer, ship, cameraToShip, parallel),
+            () => { if (Grid is not null) _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, projection, _segments, parallel); });
+        _lineDrawer.SortIntoBands(_segments, rasterizer);
+    }
+
+    /// <summary>Looks at every body, joins their front faces as sky triangles in body order and draws them into the surface layer.</summary>
+    private void DrawBodies(SkyRasterizer rasterizer, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
+    {
+        Projection projection = rasterizer.Projection;
         double pixelsPerRadian = PixelScaleMargin / Math.Sqrt(projection.ReferencePixelSolidAngle);
         // Each body is imaged by one thread into its own list; the lists are joined in body order.
         Parallel.For(0, _imagers.Length, parallel, i =>
@@ -93,19 +111,22 @@ public sealed class NearFieldLayer : IFrameLayer
             if (_views[i].Appearance is not null)
                 _imagers[i].AppendTriangles(_bodyTriangles[i], pixelsPerRadian, projection.ReferencePixelSolidAngle);
         });
-        _triangles.Clear();
-        foreach (List<SkyTriangle> triangles in _bodyTriangles) _triangles.AddRange(triangles);
+        int count = _bodyTriangles.Sum(triangles => triangles.Count), joined = 0;
+        if (_triangles.Length < count) _triangles = new SkyTriangle[Math.Max(count, 2 * _triangles.Length)];
+        foreach (List<SkyTriangle> triangles in _bodyTriangles)
+        {
+            triangles.CopyTo(_triangles, joined);
+            joined += triangles.Count;
+        }
         rasterizer.Clear(parallel);
-        rasterizer.Draw(System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_triangles), parallel);
-        _segments.Clear();
-        if (Grid is not null) _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, projection, _segments, parallel);
+        rasterizer.Draw(_triangles.AsMemory(0, count), parallel);
     }
 
-    /// <summary>Surfaces over the frame, then the grid's lines (depth-tested against the surfaces), brought to the exposure.</summary>
-    private void Composite(HdrFrame hdr, float exposureScale, ParallelOptions parallel)
+    /// <summary>Surfaces over the band, then the grid's lines (depth-tested against the surfaces), brought to the exposure.</summary>
+    private void Composite(HdrBand band, float exposureScale)
     {
-        _rasterizer!.CompositeOver(hdr, parallel);
-        if (_segments.Count > 0) _lineDrawer.Draw(_segments, hdr, _rasterizer, 1 / exposureScale, parallel);
+        _rasterizer!.CompositeOver(band);
+        if (_segments.Count > 0) _lineDrawer.Draw(band, 1 / exposureScale);
     }
 
     private SkyRasterizer RasterizerFor(Projection projection)

@@ -1,5 +1,6 @@
 using System.Numerics;
 using System.Runtime.CompilerServices;
+using System.Runtime.Intrinsics;
 using Lightward.Rendering.Projections;
 using Lightward.Spacetime;
 
@@ -11,16 +12,21 @@ namespace Lightward.Rendering.NearField;
 /// great-circle side tests on the cached <see cref="PixelDirections"/>), so the equirectangular wrap, a dome's rim and
 /// the region behind a perspective camera need no special cases: only the pixel box to search is found per
 /// projection, by subdividing triangles whose box is not trustworthy. Outline sides get a half-pixel ramp on either
-/// side (anti-aliasing); the nearest emission event wins each pixel. Row bands are drawn in parallel, each by one
-/// thread, every band over the triangles in one fixed order, so the result never depends on scheduling. The layer
-/// remembers which <see cref="TileSize"/>-pixel tiles it drew into, and composites and clears only those.
+/// side (anti-aliasing); the nearest emission event wins each pixel. Triangles are prepared in fixed chunks in
+/// parallel and kept in their given order; row bands are then filled in parallel, each by one thread over the
+/// triangles in that order, eight neighbouring pixels at a time, so the result never depends on scheduling. Each band
+/// counts its surfaces' brightness for the exposure meter as it finishes. The layer remembers which
+/// <see cref="TileSize"/>-pixel tiles it drew into, and composites and clears only those.
 /// </summary>
 public sealed class SkyRasterizer
 {
-    private const int BandRows = 32;
+    /// <summary>Rows per band of the fill: a tile high, so that bodies a few bands tall still spread over the threads.</summary>
+    private const int BandRows = TileSize;
     /// <summary>Side of the square tiles in which drawn regions are tracked, pixels.</summary>
     public const int TileSize = 16;
     private const int MaxSubdivisionDepth = 10;
+    /// <summary>Triangles prepared per work item: a fixed split, each item into its own list, joined in order.</summary>
+    private const int TrianglesPerChunk = 256;
     /// <summary>Triangles below this angular size are dropped when their corners cannot be placed (behind a flat screen) or all lie beyond one image edge, rad.</summary>
     private const double OffImageDropAngle = 1.0;
     /// <summary>
@@ -36,38 +42,48 @@ public sealed class SkyRasterizer
 
     private readonly PixelDirections _directions;
     private readonly ViewCap _view;
-    /// <summary>The layer, row-major; one struct per pixel keeps a pixel's blend within one or two cache lines.</summary>
-    private readonly SurfacePixel[] _pixels;
+    /// <summary>The layer, row-major: premultiplied surface colour, coverage, and the emission distance of the nearest surface (+∞ where none).</summary>
+    private readonly SurfacePlanes _pixels;
     private readonly int _tileColumns, _tileRows;
     private readonly double _smallBox;
     private readonly bool[] _dirtyTiles;
+    /// <summary>The tile columns and rows that hold every drawn tile (empty when first &gt; last).</summary>
+    private (int FirstColumn, int LastColumn, int FirstRow, int LastRow) _drawnTiles = (0, -1, 0, -1);
     private PreparedTriangle[] _prepared = new PreparedTriangle[1024];
     private int _preparedCount;
+    /// <summary>Per work item of the preparation, its triangles prepared, in order.</summary>
+    private readonly List<List<PreparedTriangle>> _chunks = [];
+    /// <summary>Per row band, the brightness of its surfaces, counted as the band is filled (see <see cref="AddSurfaceLevels"/>).</summary>
+    private readonly LevelHistogram[] _bandLevels;
+    private bool _filled;
     /// <summary>Per row band, the prepared triangles reaching into it, in drawing order.</summary>
     private readonly List<int>[] _bandTriangles;
     private readonly Action<int> _fillBand;
+    private ReadOnlyMemory<SkyTriangle> _toPrepare;
+    private readonly Action<int> _prepareChunk;
 
     public SkyRasterizer(PixelDirections directions)
     {
         _directions = directions;
         _view = ViewCap.Of(directions);
-        _pixels = new SurfacePixel[Width * Height];
-        Array.Fill(_pixels, SurfacePixel.Empty);
+        _pixels = new SurfacePlanes(Width * Height);
         _tileColumns = (Width + TileSize - 1) / TileSize;
         _tileRows = (Height + TileSize - 1) / TileSize;
         _dirtyTiles = new bool[_tileColumns * _tileRows];
         _smallBox = Math.Min(SmallBox, Math.Min(Width, Height) / 4.0);
         _bandTriangles = new List<int>[(Height + BandRows - 1) / BandRows];
         for (int band = 0; band < _bandTriangles.Length; band++) _bandTriangles[band] = [];
+        _bandLevels = _bandTriangles.Select(_ => new LevelHistogram()).ToArray();
         _fillBand = FillBand;
+        _prepareChunk = PrepareChunk;
     }
 
     public Projection Projection => _directions.Projection;
     public int Width => Projection.Width;
     public int Height => Projection.Height;
 
-    /// <summary>Emission distance of the nearest surface at pixel <paramref name="index"/> (row-major), +∞ where none was drawn; kept until <see cref="Clear"/>.</summary>
-    internal float DepthAt(int index) => _pixels[index].Depth;
+    /// <summary>Per pixel (row-major), the emission distance of the nearest surface, +∞ where none was drawn; kept until <see cref="Clear"/>.</summary>
+    internal float[] Depths => _pixels.Depth;
 
     /// <summary>
     /// False when no surface was drawn within <paramref name="reach"/> pixels of the box spanned by (x0, y0) and
@@ -75,8 +91,10 @@ public sealed class SkyRasterizer
     /// </summary>
     internal bool MayHaveSurfaceIn(float x0, float y0, float x1, float y1, int reach)
     {
-        int firstTile = TileOf(MathF.Min(x0, x1) - reach, Width), lastTile = TileOf(MathF.Max(x0, x1) + reach, Width);
-        int firstRow = TileOf(MathF.Min(y0, y1) - reach, Height), lastRow = TileOf(MathF.Max(y0, y1) + reach, Height);
+        int firstTile = Math.Max(_drawnTiles.FirstColumn, TileOf(MathF.Min(x0, x1) - reach, Width));
+        int lastTile = Math.Min(_drawnTiles.LastColumn, TileOf(MathF.Max(x0, x1) + reach, Width));
+        int firstRow = Math.Max(_drawnTiles.FirstRow, TileOf(MathF.Min(y0, y1) - reach, Height));
+        int lastRow = Math.Min(_drawnTiles.LastRow, TileOf(MathF.Max(y0, y1) + reach, Height));
         for (int tileRow = firstRow; tileRow <= lastRow; tileRow++)
             for (int tile = firstTile; tile <= lastTile; tile++)
                 if (_dirtyTiles[tileRow * _tileColumns + tile]) return true;
@@ -91,89 +109,139 @@ public sealed class SkyRasterizer
     public ViewCap View => _view;
 
     /// <summary>Rasterises <paramref name="triangles"/> (front-facing; winding is taken from the directions) into the layer.</summary>
-    public void Draw(ReadOnlySpan<SkyTriangle> triangles, ParallelOptions parallel)
+    public void Draw(ReadOnlyMemory<SkyTriangle> triangles, ParallelOptions parallel)
     {
         _preparedCount = 0;
+        _filled = false;
         foreach (List<int> band in _bandTriangles) band.Clear();
-        foreach (SkyTriangle triangle in triangles) Prepare(triangle, 0);
+        int chunkCount = (triangles.Length + TrianglesPerChunk - 1) / TrianglesPerChunk;
+        while (_chunks.Count < chunkCount) _chunks.Add([]);
+        _toPrepare = triangles;
+        Parallel.For(0, chunkCount, parallel, _prepareChunk);
+        _toPrepare = default;
+        for (int chunk = 0; chunk < chunkCount; chunk++)
+            foreach (PreparedTriangle prepared in _chunks[chunk]) Keep(prepared);
+        _drawnTiles = DrawnTiles();
         if (_preparedCount == 0) return;
         Parallel.For(0, _bandTriangles.Length, parallel, _fillBand);
+        _filled = true;
     }
 
     /// <summary>
-    /// Lays the layer over <paramref name="frame"/>: surfaces hide what lies behind them in proportion to their
-    /// coverage, and the pixels they cover are marked touched. The depth buffer stays until <see cref="Clear"/>, so
-    /// lines drawn afterwards can pass behind or in front of the surfaces.
+    /// Lays the layer over the rows of <paramref name="band"/>: surfaces hide what lies behind them in proportion to
+    /// their coverage, and the pixels they cover are marked touched. The depth buffer stays until <see cref="Clear"/>,
+    /// so lines drawn afterwards can pass behind or in front of the surfaces.
     /// </summary>
-    public void CompositeOver(HdrFrame frame, ParallelOptions parallel)
+    public void CompositeOver(HdrBand band)
     {
-        if (frame.Width != Width || frame.Height != Height) throw new ArgumentException("frame and surface layer differ in size", nameof(frame));
-        float[] red = frame.Red, green = frame.Green, blue = frame.Blue;
-        ForEachDirtyRowSpan(parallel, (y, start, end) =>
-        {
-            bool touched = false;
-            for (int i = y * Width + start, last = y * Width + end; i < last; i++)
-            {
-                ref readonly SurfacePixel pixel = ref _pixels[i];
-                if (pixel.Alpha == 0) continue;
-                float keep = 1 - pixel.Alpha;
-                red[i] = red[i] * keep + pixel.Red;
-                green[i] = green[i] * keep + pixel.Green;
-                blue[i] = blue[i] * keep + pixel.Blue;
-                touched = true;
-            }
-            if (touched) frame.MarkTouched(y, start, end);
-        });
+        if (band.Buffer.Width != Width || band.EndRow > Height) throw new ArgumentException("band and surface layer differ in size", nameof(band));
+        var over = new CompositeRun(_pixels, band);
+        ForEachDirtyRun(band.FirstRow, band.EndRow, ref over);
     }
 
     /// <summary>
     /// Adds the brightness of every covered pixel to <paramref name="levels"/>: its brightest channel at full
     /// coverage (the surface's own brightness, whatever share of the pixel it covers), in HDR units.
     /// </summary>
-    public void AddSurfaceLevels(LevelHistogram levels) =>
-        ForEachDirtyRowSpan(null, (y, start, end) =>
-        {
-            for (int i = y * Width + start, last = y * Width + end; i < last; i++)
-            {
-                ref readonly SurfacePixel pixel = ref _pixels[i];
-                if (pixel.Alpha > 0) levels.Add(MathF.Max(pixel.Red, MathF.Max(pixel.Green, pixel.Blue)) / pixel.Alpha);
-            }
-        });
+    public void AddSurfaceLevels(LevelHistogram levels)
+    {
+        if (!_filled) return;
+        foreach (LevelHistogram band in _bandLevels) levels.Add(band);
+    }
 
     /// <summary>Empties the layer (only the tiles drawn since the last clear) for the next frame.</summary>
     public void Clear(ParallelOptions parallel)
     {
-        ForEachDirtyRowSpan(parallel, (y, start, end) => Array.Fill(_pixels, SurfacePixel.Empty, y * Width + start, end - start));
-        Array.Clear(_dirtyTiles);
-    }
-
-    /// <summary>
-    /// Calls <paramref name="span"/>(row, first column, end column) for each run of drawn tiles in each row: top to
-    /// bottom, or with <paramref name="parallel"/> one row of tiles per work item (each owns its rows).
-    /// </summary>
-    private void ForEachDirtyRowSpan(ParallelOptions? parallel, Action<int, int, int> span)
-    {
-        if (parallel is null)
-            for (int tileRow = 0; tileRow < _tileRows; tileRow++) ForEachDirtySpanInTileRow(tileRow, span);
-        else
-            Parallel.For(0, _tileRows, parallel, tileRow => ForEachDirtySpanInTileRow(tileRow, span));
-    }
-
-    private void ForEachDirtySpanInTileRow(int tileRow, Action<int, int, int> span)
-    {
-        for (int tile = 0; tile < _tileColumns;)
+        Parallel.For(_drawnTiles.FirstRow, _drawnTiles.LastRow + 1, parallel, tileRow =>
         {
-            if (!_dirtyTiles[tileRow * _tileColumns + tile]) { tile++; continue; }
-            int runEnd = tile + 1;
-            while (runEnd < _tileColumns && _dirtyTiles[tileRow * _tileColumns + runEnd]) runEnd++;
-            int start = tile * TileSize, end = Math.Min(Width, runEnd * TileSize);
-            for (int y = tileRow * TileSize; y < Math.Min(Height, (tileRow + 1) * TileSize); y++) span(y, start, end);
-            tile = runEnd;
+            var clear = new ClearRun(_pixels);
+            ForEachDirtyRun(tileRow * TileSize, Math.Min(Height, (tileRow + 1) * TileSize), ref clear);
+        });
+        Array.Clear(_dirtyTiles);
+        _drawnTiles = (0, -1, 0, -1);
+    }
+
+    /// <summary>The smallest range of tile columns and rows holding every drawn tile.</summary>
+    private (int FirstColumn, int LastColumn, int FirstRow, int LastRow) DrawnTiles()
+    {
+        (int firstColumn, int lastColumn, int firstRow, int lastRow) = (_tileColumns, -1, _tileRows, -1);
+        for (int tileRow = 0; tileRow < _tileRows; tileRow++)
+        {
+            ReadOnlySpan<bool> row = _dirtyTiles.AsSpan(tileRow * _tileColumns, _tileColumns);
+            int first = row.IndexOf(true);
+            if (first < 0) continue;
+            (firstColumn, lastColumn) = (Math.Min(firstColumn, first), Math.Max(lastColumn, row.LastIndexOf(true)));
+            (firstRow, lastRow) = (Math.Min(firstRow, tileRow), tileRow);
+        }
+        return (firstColumn, lastColumn, firstRow, lastRow);
+    }
+
+    /// <summary>Work on one run of pixels, [<c>start</c>, <c>end</c>) in row-major index (frame pixels), all in one row of drawn tiles.</summary>
+    private interface IRunAction
+    {
+        void Run(int row, int start, int end);
+    }
+
+    /// <summary>Calls <paramref name="action"/> for each run of drawn tiles in each of rows [<paramref name="firstRow"/>, <paramref name="endRow"/>), top to bottom.</summary>
+    private void ForEachDirtyRun<TAction>(int firstRow, int endRow, ref TAction action) where TAction : struct, IRunAction
+    {
+        for (int tileRow = Math.Max(firstRow / TileSize, _drawnTiles.FirstRow); tileRow * TileSize < endRow && tileRow <= _drawnTiles.LastRow; tileRow++)
+        {
+            int rowStart = tileRow * _tileColumns;
+            for (int tile = _drawnTiles.FirstColumn; tile <= _drawnTiles.LastColumn;)
+            {
+                if (!_dirtyTiles[rowStart + tile]) { tile++; continue; }
+                int runEnd = tile + 1;
+                while (runEnd <= _drawnTiles.LastColumn && _dirtyTiles[rowStart + runEnd]) runEnd++;
+                int start = tile * TileSize, end = Math.Min(Width, runEnd * TileSize);
+                for (int y = Math.Max(firstRow, tileRow * TileSize); y < Math.Min(endRow, (tileRow + 1) * TileSize); y++)
+                    action.Run(y, y * Width + start, y * Width + end);
+                tile = runEnd;
+            }
         }
     }
 
+    private readonly struct CompositeRun(SurfacePlanes pixels, HdrBand band) : IRunAction
+    {
+        public void Run(int row, int start, int end)
+        {
+            float[] red = band.Buffer.Red, green = band.Buffer.Green, blue = band.Buffer.Blue;
+            int rowStart = row * band.Buffer.Width, shift = band.RowStart(row) - rowStart;
+            bool touched = false;
+            for (int i = start; i < end; i++)
+            {
+                float alpha = pixels.Alpha[i];
+                if (alpha == 0) continue;
+                float keep = 1 - alpha;
+                int at = i + shift;
+                red[at] = red[at] * keep + pixels.Red[i];
+                green[at] = green[at] * keep + pixels.Green[i];
+                blue[at] = blue[at] * keep + pixels.Blue[i];
+                touched = true;
+            }
+            if (touched) band.MarkTouched(row, start - rowStart, end - rowStart);
+        }
+    }
+
+    private readonly struct LevelsOfRun(SurfacePlanes pixels, LevelHistogram levels) : IRunAction
+    {
+        public void Run(int row, int start, int end)
+        {
+            for (int i = start; i < end; i++)
+            {
+                float alpha = pixels.Alpha[i];
+                if (alpha > 0) levels.Add(MathF.Max(pixels.Red[i], MathF.Max(pixels.Green[i], pixels.Blue[i])) / alpha);
+            }
+        }
+    }
+
+    private readonly struct ClearRun(SurfacePlanes pixels) : IRunAction
+    {
+        public void Run(int row, int start, int end) => pixels.Clear(start, end - start);
+    }
+
     /// <summary>Finds the pixel box to search for a triangle, subdividing it where the projection makes the box unreliable.</summary>
-    private void Prepare(in SkyTriangle t, int depth)
+    private void Prepare(in SkyTriangle t, int depth, List<PreparedTriangle> output)
     {
         Vec3 a = ToVec3(t.DirectionA), b = ToVec3(t.DirectionB), c = ToVec3(t.DirectionC);
         // The angle subtended by the longest chord.
@@ -206,14 +274,14 @@ public sealed class SkyRasterizer
                 double pad = bow + (t.OutlineSides != 0 ? OutlineRampReach : 0) + 0.01;
                 var prepared = new PreparedTriangle(t, (float)scale);
                 AddBox(ref prepared, minX - pad, minY - pad, maxX + pad, maxY + pad);
-                Keep(prepared);
+                if (prepared.BoxCount > 0) output.Add(prepared);
                 return;
             }
         }
         double pixelsPerRadian = PixelsPerRadian(onA ? a : onB ? b : onC ? c : centre);
         if (depth < MaxSubdivisionDepth && diameter * pixelsPerRadian > 3)
         {
-            Subdivide(t, depth);
+            Subdivide(t, depth, output);
             return;
         }
         // A few pixels across and still straddling a seam or the image edge: search around each corner that is on the image.
@@ -222,10 +290,10 @@ public sealed class SkyRasterizer
         if (onA) AddBox(ref straddling, ax - radius, ay - radius, ax + radius, ay + radius);
         if (onB) AddBox(ref straddling, bx - radius, by - radius, bx + radius, by + radius);
         if (onC) AddBox(ref straddling, cx - radius, cy - radius, cx + radius, cy + radius);
-        Keep(straddling);
+        if (straddling.BoxCount > 0) output.Add(straddling);
     }
 
-    private void Subdivide(in SkyTriangle t, int depth)
+    private void Subdivide(in SkyTriangle t, int depth, List<PreparedTriangle> output)
     {
         // Midpoints on the great-circle sides; depth and colour halfway, as the fill interpolates them.
         Vector3 ab = Vector3.Normalize(t.DirectionA + t.DirectionB), bc = Vector3.Normalize(t.DirectionB + t.DirectionC), ca = Vector3.Normalize(t.DirectionC + t.DirectionA);
@@ -240,10 +308,10 @@ public sealed class SkyRasterizer
         };
         byte o = t.OutlineSides;
         // Each corner piece keeps the outline bits of the two original sides it lies on; the middle piece has none.
-        Prepare(Make(t.DirectionA, t.DepthA, t.ColourA, ab, dab, cab, ca, dca, cca, (byte)((o & 1) | (o & 4))), depth + 1);
-        Prepare(Make(ab, dab, cab, t.DirectionB, t.DepthB, t.ColourB, bc, dbc, cbc, (byte)((o & 1) | (o & 2))), depth + 1);
-        Prepare(Make(ca, dca, cca, bc, dbc, cbc, t.DirectionC, t.DepthC, t.ColourC, (byte)((o & 2) | (o & 4))), depth + 1);
-        Prepare(Make(ab, dab, cab, bc, dbc, cbc, ca, dca, cca, 0), depth + 1);
+        Prepare(Make(t.DirectionA, t.DepthA, t.ColourA, ab, dab, cab, ca, dca, cca, (byte)((o & 1) | (o & 4))), depth + 1, output);
+        Prepare(Make(ab, dab, cab, t.DirectionB, t.DepthB, t.ColourB, bc, dbc, cbc, (byte)((o & 1) | (o & 2))), depth + 1, output);
+        Prepare(Make(ca, dca, cca, bc, dbc, cbc, t.DirectionC, t.DepthC, t.ColourC, (byte)((o & 2) | (o & 4))), depth + 1, output);
+        Prepare(Make(ab, dab, cab, bc, dbc, cbc, ca, dca, cca, 0), depth + 1, output);
     }
 
     /// <summary>Image pixels per radian of sky around <paramref name="direction"/>: the larger of two perpendicular finite differences.</summary>
@@ -276,74 +344,156 @@ public sealed class SkyRasterizer
         int x1 = (int)Math.Min(Width - 1, Math.Floor(maxX - 0.5)), y1 = (int)Math.Min(Height - 1, Math.Floor(maxY - 0.5));
         if (x0 > x1 || y0 > y1) return;
         prepared.AddBox(x0, y0, x1, y1);
+        // Chunks prepared side by side may mark the same tile: they all write true, so the marks never depend on the order.
         for (int tileRow = y0 / TileSize; tileRow <= y1 / TileSize; tileRow++)
             for (int tile = x0 / TileSize; tile <= x1 / TileSize; tile++) _dirtyTiles[tileRow * _tileColumns + tile] = true;
     }
 
+    private void PrepareChunk(int chunk)
+    {
+        List<PreparedTriangle> output = _chunks[chunk];
+        output.Clear();
+        ReadOnlySpan<SkyTriangle> triangles = _toPrepare.Span;
+        for (int k = chunk * TrianglesPerChunk; k < Math.Min(triangles.Length, (chunk + 1) * TrianglesPerChunk); k++) Prepare(triangles[k], 0, output);
+    }
+
+    /// <summary>Adds a prepared triangle to the drawing order and to the lists of the bands it reaches.</summary>
     private void Keep(in PreparedTriangle prepared)
     {
-        if (prepared.BoxCount == 0) return;
         if (_preparedCount == _prepared.Length) Array.Resize(ref _prepared, 2 * _prepared.Length);
         for (int band = prepared.MinY / BandRows; band <= prepared.MaxY / BandRows; band++) _bandTriangles[band].Add(_preparedCount);
         _prepared[_preparedCount++] = prepared;
     }
 
-    private void FillBand(int band)
+    private unsafe void FillBand(int band)
     {
         int top = band * BandRows, bottom = Math.Min(Height, top + BandRows) - 1;
-        foreach (int k in _bandTriangles[band]) Fill(_prepared[k], top, bottom);
+        fixed (float* x = _directions.X, y = _directions.Y, z = _directions.Z)
+        fixed (float* red = _pixels.Red, green = _pixels.Green, blue = _pixels.Blue, alpha = _pixels.Alpha, depth = _pixels.Depth)
+        {
+            var pixels = new PixelPointers(x, y, z, red, green, blue, alpha, depth);
+            foreach (int k in _bandTriangles[band])
+            {
+                ref readonly PreparedTriangle t = ref _prepared[k];
+                for (int boxIndex = 0; boxIndex < t.BoxCount; boxIndex++)
+                {
+                    (int x0, int y0, int x1, int y1) = t.Box(boxIndex);
+                    for (int row = Math.Max(y0, top); row <= Math.Min(y1, bottom); row++) FillRow(t, boxIndex, row, x0, x1, pixels);
+                }
+            }
+        }
+        _bandLevels[band].Clear();
+        var count = new LevelsOfRun(_pixels, _bandLevels[band]);
+        ForEachDirtyRun(top, bottom + 1, ref count);
     }
 
-    private void Fill(in PreparedTriangle t, int top, int bottom)
+    /// <summary>Pixels [<paramref name="x0"/>, <paramref name="x1"/>] of row <paramref name="y"/>, eight at a time.</summary>
+    private unsafe void FillRow(in PreparedTriangle t, int boxIndex, int y, int x0, int x1, in PixelPointers pixels)
     {
-        for (int boxIndex = 0; boxIndex < t.BoxCount; boxIndex++)
+        const int Lanes = VectorLanes.Count;
+        for (int x = x0; x <= x1; x += Lanes)
         {
-            (int x0, int y0, int x1, int y1) = t.Box(boxIndex);
-            for (int y = Math.Max(y0, top); y <= Math.Min(y1, bottom); y++) FillRow(t, boxIndex, y, x0, x1);
+            Vector256<int> column = Vector256.Create(x) + VectorLanes.Indices;
+            Vector256<float> wanted = Vector256.LessThanOrEqual(column, Vector256.Create(x1)).AsSingle();
+            // Pixels where boxes overlap are drawn from the first box only, so no pixel is blended twice.
+            for (int earlier = 0; earlier < boxIndex; earlier++)
+            {
+                (int bx0, int by0, int bx1, int by1) = t.Box(earlier);
+                if (y >= by0 && y <= by1)
+                    wanted = Vector256.AndNot(wanted, (Vector256.GreaterThanOrEqual(column, Vector256.Create(bx0)) & Vector256.LessThanOrEqual(column, Vector256.Create(bx1))).AsSingle());
+            }
+            int i = y * Width + x;
+            if (x + Lanes <= Width) Shade(t, pixels.At(i), wanted);
+            else
+            {
+                // The last few pixels of a row go through a copy, so nothing past the row's end is read or written.
+                PixelPointers.Lane8 copy = default;
+                PixelPointers part = copy.Load(pixels.At(i), Width - x);
+                Shade(t, part, wanted);
+                copy.StoreSurface(pixels.At(i), Width - x);
+            }
         }
     }
 
-    private void FillRow(in PreparedTriangle t, int boxIndex, int y, int x0, int x1)
-    {
-        int start = y * Width + x0, count = x1 - x0 + 1;
-        ReadOnlySpan<float> dx = _directions.X.AsSpan(start, count), dy = _directions.Y.AsSpan(start, count), dz = _directions.Z.AsSpan(start, count);
-        Span<SurfacePixel> pixels = _pixels.AsSpan(start, count);
-        for (int k = 0; k < pixels.Length; k++)
-        {
-            if (boxIndex > 0 && t.InEarlierBox(boxIndex, x0 + k, y)) continue;
-            if (t.TryShade(dx[k], dy[k], dz[k], out float depth, out Vector3 colour, out float coverage)) Blend(ref pixels[k], depth, colour, coverage);
-        }
-    }
-
-    /// <summary>Nearest surface in front; a partly covered pixel shows what lies behind it through the uncovered part.</summary>
+    /// <summary>Shades eight pixels for a triangle and blends the covered ones that are <paramref name="wanted"/> into the layer.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static void Blend(ref SurfacePixel pixel, float depth, Vector3 colour, float coverage)
+    private static unsafe void Shade(in PreparedTriangle t, in PixelPointers at, Vector256<float> wanted)
     {
-        float oldAlpha = pixel.Alpha;
-        if (depth < pixel.Depth)
+        Vector256<float> covered = wanted & t.Shade(Vector256.Load(at.X), Vector256.Load(at.Y), Vector256.Load(at.Z),
+            out Vector256<float> depth, out Vector256<float> red, out Vector256<float> green, out Vector256<float> blue, out Vector256<float> coverage);
+        if (covered == Vector256<float>.Zero) return;
+        // Nearest surface in front; a partly covered pixel shows what lies behind it through the uncovered part.
+        Vector256<float> oldRed = Vector256.Load(at.Red), oldGreen = Vector256.Load(at.Green), oldBlue = Vector256.Load(at.Blue);
+        Vector256<float> oldAlpha = Vector256.Load(at.Alpha), oldDepth = Vector256.Load(at.Depth);
+        Vector256<float> one = Vector256<float>.One;
+        Vector256<float> front = covered & Vector256.LessThan(depth, oldDepth);
+        Vector256<float> through = Vector256.AndNot(covered, front) & Vector256.LessThan(oldAlpha, one);
+        Vector256<float> behind = one - coverage, seen = (one - oldAlpha) * coverage;
+        Vector256.ConditionalSelect(front, coverage * red + behind * oldRed, Vector256.ConditionalSelect(through, oldRed + seen * red, oldRed)).Store(at.Red);
+        Vector256.ConditionalSelect(front, coverage * green + behind * oldGreen, Vector256.ConditionalSelect(through, oldGreen + seen * green, oldGreen)).Store(at.Green);
+        Vector256.ConditionalSelect(front, coverage * blue + behind * oldBlue, Vector256.ConditionalSelect(through, oldBlue + seen * blue, oldBlue)).Store(at.Blue);
+        Vector256.ConditionalSelect(front, coverage + behind * oldAlpha, Vector256.ConditionalSelect(through, oldAlpha + seen, oldAlpha)).Store(at.Alpha);
+        Vector256.ConditionalSelect(front, depth, oldDepth).Store(at.Depth);
+    }
+
+    /// <summary>The layer's planes, one float per pixel each, reused from frame to frame.</summary>
+    private sealed class SurfacePlanes(int count)
+    {
+        public readonly float[] Red = new float[count], Green = new float[count], Blue = new float[count], Alpha = new float[count];
+        public readonly float[] Depth = Filled(count, float.PositiveInfinity);
+
+        /// <summary>Empties <paramref name="count"/> pixels from <paramref name="start"/>: no colour, no coverage, no surface.</summary>
+        public void Clear(int start, int count)
         {
-            float behind = 1 - coverage;
-            pixel.Red = coverage * colour.X + behind * pixel.Red;
-            pixel.Green = coverage * colour.Y + behind * pixel.Green;
-            pixel.Blue = coverage * colour.Z + behind * pixel.Blue;
-            pixel.Alpha = coverage + behind * oldAlpha;
-            pixel.Depth = depth;
+            Array.Clear(Red, start, count);
+            Array.Clear(Green, start, count);
+            Array.Clear(Blue, start, count);
+            Array.Clear(Alpha, start, count);
+            Array.Fill(Depth, float.PositiveInfinity, start, count);
         }
-        else if (oldAlpha < 1)
+
+        private static float[] Filled(int count, float value)
         {
-            float through = (1 - oldAlpha) * coverage;
-            pixel.Red += through * colour.X;
-            pixel.Green += through * colour.Y;
-            pixel.Blue += through * colour.Z;
-            pixel.Alpha = oldAlpha + through;
+            var plane = new float[count];
+            Array.Fill(plane, value);
+            return plane;
         }
     }
 
-    /// <summary>Premultiplied surface colour, coverage, and the emission distance of the nearest surface.</summary>
-    private struct SurfacePixel
+    /// <summary>Where eight neighbouring pixels' directions and surface values are (pinned by the caller).</summary>
+    private readonly unsafe struct PixelPointers(float* x, float* y, float* z, float* red, float* green, float* blue, float* alpha, float* depth)
     {
-        public static readonly SurfacePixel Empty = new() { Depth = float.PositiveInfinity };
-        public float Red, Green, Blue, Alpha, Depth;
+        private const int Lanes = VectorLanes.Count;
+
+        public readonly float* X = x, Y = y, Z = z, Red = red, Green = green, Blue = blue, Alpha = alpha, Depth = depth;
+
+        public PixelPointers At(int index) => new(X + index, Y + index, Z + index, Red + index, Green + index, Blue + index, Alpha + index, Depth + index);
+
+        /// <summary>Eight lanes of every plane, for the last pixels of a row: lanes past the row's end show no sky (NaN), so nothing is drawn there.</summary>
+        public struct Lane8
+        {
+            private fixed float _values[8 * Lanes];
+
+            public PixelPointers Load(in PixelPointers from, int count)
+            {
+                fixed (float* values = _values)
+                {
+                    new Span<float>(values, 3 * Lanes).Fill(float.NaN);
+                    var to = new PixelPointers(values, values + Lanes, values + 2 * Lanes, values + 3 * Lanes, values + 4 * Lanes, values + 5 * Lanes, values + 6 * Lanes, values + 7 * Lanes);
+                    for (int plane = 0; plane < 8; plane++) new ReadOnlySpan<float>(from.Plane(plane), count).CopyTo(new Span<float>(to.Plane(plane), Lanes));
+                    // The copy lives in this struct, on the caller's stack: the pointers stay valid while it does.
+                    return to;
+                }
+            }
+
+            public void StoreSurface(in PixelPointers to, int count)
+            {
+                fixed (float* values = _values)
+                    for (int plane = 3; plane < 8; plane++) new ReadOnlySpan<float>(values + plane * Lanes, count).CopyTo(new Span<float>(to.Plane(plane), count));
+            }
+        }
+
+        private float* Plane(int plane) => plane switch { 0 => X, 1 => Y, 2 => Z, 3 => Red, 4 => Green, 5 => Blue, 6 => Alpha, _ => Depth };
     }
 
     private static Vec3 ToVec3(Vector3 v) => new(v.X, v.Y, v.Z);
@@ -396,47 +546,51 @@ public sealed class SkyRasterizer
             _ => (_box2X0, _box2Y0, _box2X1, _box2Y1),
         };
 
-        /// <summary>Pixels where boxes overlap are drawn from the first box only, so no pixel is blended twice.</summary>
-        public readonly bool InEarlierBox(int boxIndex, int x, int y)
+        /// <summary>
+        /// Which of eight pixels (directions px, py, pz) lie inside the triangle, as a lane mask, with the depth,
+        /// colour and coverage interpolated at each (meaningful in the lanes inside only).
+        /// </summary>
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        public readonly Vector256<float> Shade(Vector256<float> px, Vector256<float> py, Vector256<float> pz, out Vector256<float> depth,
+            out Vector256<float> red, out Vector256<float> green, out Vector256<float> blue, out Vector256<float> coverage)
         {
-            for (int b = 0; b < boxIndex; b++)
-            {
-                (int x0, int y0, int x1, int y1) = Box(b);
-                if (x >= x0 && x <= x1 && y >= y0 && y <= y1) return true;
-            }
-            return false;
+            Vector256<float> weightA = Dot(_sideBC, px, py, pz), weightB = Dot(_sideCA, px, py, pz), weightC = Dot(_sideAB, px, py, pz);
+            coverage = Vector256<float>.One;
+            // NaN directions (no sky in this pixel) fail every comparison below.
+            Vector256<float> inside = SideCoverage(weightA, _rampBC, ref coverage) & SideCoverage(weightB, _rampCA, ref coverage) & SideCoverage(weightC, _rampAB, ref coverage);
+            weightA = Vector256.Max(weightA, Vector256<float>.Zero);
+            weightB = Vector256.Max(weightB, Vector256<float>.Zero);
+            weightC = Vector256.Max(weightC, Vector256<float>.Zero);
+            Vector256<float> total = weightA + weightB + weightC;
+            inside &= Vector256.GreaterThan(total, Vector256<float>.Zero);
+            Vector256<float> inverse = Vector256<float>.One / total;
+            weightA *= inverse; weightB *= inverse; weightC *= inverse;
+            depth = Interpolate(weightA, weightB, weightC, _depthA, _depthB, _depthC);
+            red = Interpolate(weightA, weightB, weightC, _colourA.X, _colourB.X, _colourC.X);
+            green = Interpolate(weightA, weightB, weightC, _colourA.Y, _colourB.Y, _colourC.Y);
+            blue = Interpolate(weightA, weightB, weightC, _colourA.Z, _colourB.Z, _colourC.Z);
+            return inside;
         }
 
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        public readonly bool TryShade(float px, float py, float pz, out float depth, out Vector3 colour, out float coverage)
-        {
-            depth = 0; colour = default; coverage = 1;
-            // NaN directions (no sky in this pixel) fail every comparison below.
-            float weightA = _sideBC.X * px + _sideBC.Y * py + _sideBC.Z * pz;
-            float weightB = _sideCA.X * px + _sideCA.Y * py + _sideCA.Z * pz;
-            float weightC = _sideAB.X * px + _sideAB.Y * py + _sideAB.Z * pz;
-            if (!SideCoverage(weightA, _rampBC, ref coverage) || !SideCoverage(weightB, _rampCA, ref coverage) || !SideCoverage(weightC, _rampAB, ref coverage)) return false;
-            weightA = MathF.Max(weightA, 0); weightB = MathF.Max(weightB, 0); weightC = MathF.Max(weightC, 0);
-            float total = weightA + weightB + weightC;
-            if (!(total > 0)) return false;
-            float inverse = 1 / total;
-            weightA *= inverse; weightB *= inverse; weightC *= inverse;
-            depth = weightA * _depthA + weightB * _depthB + weightC * _depthC;
-            colour = weightA * _colourA + weightB * _colourB + weightC * _colourC;
-            return true;
-        }
+        private static Vector256<float> Dot(Vector3 side, Vector256<float> px, Vector256<float> py, Vector256<float> pz) =>
+            Vector256.Create(side.X) * px + Vector256.Create(side.Y) * py + Vector256.Create(side.Z) * pz;
+
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        private static Vector256<float> Interpolate(Vector256<float> weightA, Vector256<float> weightB, Vector256<float> weightC, float a, float b, float c) =>
+            weightA * Vector256.Create(a) + weightB * Vector256.Create(b) + weightC * Vector256.Create(c);
 
         /// <summary>
         /// Inside test against one side. An outline side fades over one pixel centred on it (coverage ramp); an inner
         /// side is a hard edge shared with the neighbouring triangle, which covers the rest.
         /// </summary>
-        private static bool SideCoverage(float weight, float ramp, ref float coverage)
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        private static Vector256<float> SideCoverage(Vector256<float> weight, float ramp, ref Vector256<float> coverage)
         {
-            if (ramp == 0) return weight >= 0;
-            float pixels = weight * ramp;
-            if (!(pixels > -0.5f)) return false;
-            coverage *= MathF.Min(1, pixels + 0.5f);
-            return true;
+            if (ramp == 0) return Vector256.GreaterThanOrEqual(weight, Vector256<float>.Zero);
+            Vector256<float> pixels = weight * Vector256.Create(ramp), half = Vector256.Create(0.5f);
+            coverage *= Vector256.Min(Vector256<float>.One, pixels + half);
+            return Vector256.GreaterThan(pixels, -half);
         }
     }
 }

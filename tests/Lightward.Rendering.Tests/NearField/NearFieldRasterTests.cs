@@ -141,4 +141,53 @@ public class NearFieldRasterTests
             }
         Assert.True(checkedPoints > 200, $"{checkedPoints} points checked");
     }
+
+    [Fact]
+    public void RightEdgeOfAnOddWidthFrameIsDrawnLikeTheRest()
+    {
+        // 203 px: every row ends in a partial eight-pixel group, which the surface fill and the line drawer handle a
+        // pixel at a time; nothing may be lost there, nor spill into the next row.
+        var projection = new PerspectiveProjection(203, 120, Math.PI / 2);
+        ShipState ship = NearFieldImages.ShipAtRest();
+        HdrFrame Draw(NearFieldLayer layer) => NearFieldImages.Render(layer, projection, ship, Rotation.Identity);
+
+        // A sphere cut by the right edge and its mirror image cut by the left edge, where the rows' groups are whole:
+        // a pinhole camera looking along its axis pictures the scene mirrored in the plane x = 0 as the mirror image
+        // of its picture (Hartley & Zisserman, Multiple View Geometry, 2nd ed. (2004), §6.1: x = f X / Z). The faceted
+        // spheres need not match facet for facet (facets may stray half a pixel from the true outline), so the
+        // pictures are compared by area and by centroid to within a quarter pixel.
+        HdrFrame right = Draw(NearFieldImages.Layer(Ball(new Vec3(9.6, 0.5, 10), radius: 1.2)));
+        HdrFrame left = Draw(NearFieldImages.Layer(Ball(new Vec3(-9.6, 0.5, 10), radius: 1.2)));
+        (double rightArea, double rightX, double rightY, _) = NearFieldImages.Moments(right, (x, y) => right.Luminance(x, y));
+        (double leftArea, double leftX, double leftY, _) = NearFieldImages.Moments(left, (x, y) => left.Luminance(x, y));
+        Assert.True(right.Luminance(projection.Width - 1, 60) > 0, "the sphere reaches the right edge");
+        Assert.Equal(leftArea, rightArea, leftArea * 0.01);
+        Assert.Equal(projection.Width - leftX, rightX, 0.25);
+        Assert.Equal(leftY, rightY, 0.25);
+        for (int y = 0; y < projection.Height; y++)
+            for (int x = 0; x < 20; x++) Assert.Equal(0, right.Luminance(x, y));
+
+        // Lattice lines where they cross the last, partial group of the rows: each point's image is drawn (its place
+        // comes from the closed-form retarded sight, checked against the aberration formulas in RestFrameSightTests).
+        var grid = SpaceGrid.AtRestInHome(1, 10);
+        HdrFrame lines = Draw(new NearFieldLayer([], grid));
+        RestFrameSight sight = RestFrameSight.Of(grid.Origin, grid.Frame, ship, Rotation.Identity);
+        int checkedPoints = 0;
+        foreach ((Vec3 from, Vec3 to) in grid.LinesAround(sight.CameraEvent.Space))
+            for (int k = 0; k <= 200; k++)
+            {
+                Vec3 point = from + k / 200.0 * (to - from);
+                // Clear of the faint ends, where the fade takes a line's colour to zero.
+                if (grid.Fade((point - sight.CameraEvent.Space).Length) < 0.1) continue;
+                if (!projection.TryProject(sight.See(point).Direction, out double x, out double y)) continue;
+                int px = (int)x, py = (int)y;
+                if (px < projection.Width - 3 || px >= projection.Width || py < 1 || py >= projection.Height - 1) continue;
+                bool drawn = false;
+                for (int dy = -1; dy <= 1; dy++)
+                    for (int dx = -1; dx <= 1 && px + dx < projection.Width; dx++) drawn |= lines.Luminance(px + dx, py + dy) > 0;
+                Assert.True(drawn, $"line point {point} seen at ({x:F1}, {y:F1}) is not drawn");
+                checkedPoints++;
+            }
+        Assert.True(checkedPoints > 50, $"{checkedPoints} points checked");
+    }
 }
