@@ -17,12 +17,21 @@ public static class ToneMapper
     /// <summary>Exposed linear value that reaches display white.</summary>
     public const float White = 16;
 
-    /// <summary>Entries of the curve-output → 8-bit table: fine enough that the steepest part of the sRGB curve stays within one code value.</summary>
-    private const int TableSize = 16384;
+    /// <summary>
+    /// The curve and the sRGB encoding are one table indexed by the exposed value's float bits: its exponent and top
+    /// <see cref="StepBits"/> mantissa bits, i.e. 1024 steps per octave from <see cref="DarkestExposed"/> (whose code,
+    /// and every darker value's, is 0) up to <see cref="White"/>. Each entry holds the code at its step's geometric
+    /// middle; across a step of 1/1024 of an octave the code moves by under a tenth, so the written code is within
+    /// one of the exact one (tested). No division per pixel, one gather per channel.
+    /// </summary>
+    private const int StepBits = 10;
+    private const float DarkestExposed = 1f / 65536;
+    private static readonly int FirstStep = BitConverter.SingleToInt32Bits(DarkestExposed) >> (23 - StepBits);
+    private static readonly int LastEntry = (BitConverter.SingleToInt32Bits(White) >> (23 - StepBits)) - FirstStep;
 
     private const float InverseWhiteSquared = 1 / (White * White);
 
-    /// <summary>round(255 · sRGB(t)) for t = i / (TableSize − 1), as ints so that whole vectors gather at once.</summary>
+    /// <summary>The 8-bit code for each step of exposed values, as ints so that whole vectors gather at once.</summary>
     private static readonly int[] EncodedTable = BuildEncodedTable();
 
     /// <summary>The tone curve for one exposed linear value, in [0, 1].</summary>
@@ -34,8 +43,8 @@ public static class ToneMapper
         return MathF.Min(1, x * (1 + x * InverseWhiteSquared) / (1 + x));
     }
 
-    /// <summary>The 8-bit sRGB code the mapper writes for a tone-curve output <paramref name="display"/> in [0, 1].</summary>
-    public static byte Encode8(float display) => (byte)EncodedTable[TableIndex(display)];
+    /// <summary>The 8-bit sRGB code the mapper writes for an exposed linear value (HDR × exposure scale).</summary>
+    public static byte Code(float exposed) => (byte)EncodedTable[TableIndex(exposed)];
 
     /// <summary>
     /// Tone maps rows [<paramref name="firstRow"/>, <paramref name="endRow"/>) of <paramref name="hdr"/> into RGBA8
@@ -135,35 +144,44 @@ public static class ToneMapper
             }
             for (; pixel < count; pixel++)
             {
-                uint r = (uint)table[TableIndex(Curve(red[pixel] * exposureScale))];
-                uint g = (uint)table[TableIndex(Curve(green[pixel] * exposureScale))];
-                uint b = (uint)table[TableIndex(Curve(blue[pixel] * exposureScale))];
+                uint r = (uint)table[TableIndex(red[pixel] * exposureScale)];
+                uint g = (uint)table[TableIndex(green[pixel] * exposureScale)];
+                uint b = (uint)table[TableIndex(blue[pixel] * exposureScale)];
                 rgba[pixel] = r | g << 8 | b << 16 | OpaqueBlack;
                 red[pixel] = green[pixel] = blue[pixel] = 0;
             }
         }
     }
 
-    /// <summary>The curve and table index for eight exposed values; NaN and negatives go to 0.</summary>
+    /// <summary>The table entry for eight exposed values: NaN and negatives go to 0 (black), anything past white to the last.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static Vector256<int> TableIndex(Vector256<float> exposed)
     {
-        Vector256<float> one = Vector256<float>.One, white = Vector256.Create(White);
-        // Same clamps as Curve: comparisons are false for NaN, so NaN falls to 0 and the index never leaves the table.
+        // Comparisons are false for NaN, so NaN falls to 0 like a negative value.
         Vector256<float> x = Vector256.ConditionalSelect(Vector256.GreaterThan(exposed, Vector256<float>.Zero), exposed, Vector256<float>.Zero);
-        x = Vector256.ConditionalSelect(Vector256.LessThan(x, white), x, white);
-        Vector256<float> curve = Vector256.Min(one, x * (one + x * Vector256.Create(InverseWhiteSquared)) / (one + x));
-        return Avx.ConvertToVector256Int32WithTruncation(curve * Vector256.Create((float)(TableSize - 1)) + Vector256.Create(0.5f));
+        x = Vector256.Min(x, Vector256.Create(White));
+        Vector256<int> step = Vector256.ShiftRightArithmetic(x.AsInt32(), 23 - StepBits) - Vector256.Create(FirstStep);
+        return Vector256.Max(step, Vector256<int>.Zero);
     }
 
-    private static int TableIndex(float display) =>
-        display > 0 ? (int)(MathF.Min(display, 1) * (TableSize - 1) + 0.5f) : 0;
+    private static int TableIndex(float exposed)
+    {
+        float x = exposed > 0 ? MathF.Min(exposed, White) : 0;
+        return Math.Max((BitConverter.SingleToInt32Bits(x) >> (23 - StepBits)) - FirstStep, 0);
+    }
 
+    /// <summary>Entry i: the code for the geometric middle of step i (the last entry is white itself).</summary>
     private static int[] BuildEncodedTable()
     {
-        var table = new int[TableSize];
-        for (int i = 0; i < TableSize; i++)
-            table[i] = (int)Math.Round(255 * SrgbTransfer.Encode(i / (double)(TableSize - 1)), MidpointRounding.AwayFromZero);
+        var table = new int[LastEntry + 1];
+        for (int i = 0; i <= LastEntry; i++)
+        {
+            int bits = (FirstStep + i) << (23 - StepBits);
+            double low = BitConverter.Int32BitsToSingle(bits), high = BitConverter.Int32BitsToSingle(bits + (1 << (23 - StepBits)));
+            double x = Math.Min(Math.Sqrt(low * high), White);
+            double display = Math.Min(1, x * (1 + x / (White * White)) / (1 + x));
+            table[i] = (int)Math.Round(255 * SrgbTransfer.Encode(display), MidpointRounding.AwayFromZero);
+        }
         return table;
     }
 }

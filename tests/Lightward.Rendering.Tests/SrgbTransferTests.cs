@@ -23,20 +23,31 @@ public class SrgbTransferTests
     public void The_8_bit_code_for_mid_grey_is_the_published_one()
     {
         // 8-bit sRGB code 188 ↔ linear 0.5 (the widely tabulated sRGB mid-point; from memory): 255 × 0.735357 = 187.5 → 188.
-        Assert.Equal(188, ToneMapper.Encode8(0.5f));
-        Assert.Equal(0, ToneMapper.Encode8(0f));
-        Assert.Equal(255, ToneMapper.Encode8(1f));
+        Assert.Equal(188, (int)Math.Round(255 * SrgbTransfer.Encode(0.5), MidpointRounding.AwayFromZero));
     }
 
     [Fact]
-    public void The_tone_mappers_table_stays_within_one_code_of_the_exact_encoding()
+    public void The_tone_mapper_writes_black_for_nothing_and_white_from_the_white_point_on()
     {
-        // The exact function is IEC 61966-2-1 §5.2; the table may differ by at most one 8-bit step anywhere.
-        for (int i = 0; i <= 100_000; i++)
+        // Reinhard et al. 2002, eq. 4 gives 0 at 0 and 1 at the white point; IEC 61966-2-1 encodes those as 0 and 255.
+        Assert.Equal(0, ToneMapper.Code(0f));
+        Assert.Equal(0, ToneMapper.Code(-1f));
+        Assert.Equal(0, ToneMapper.Code(float.NaN));
+        Assert.Equal(255, ToneMapper.Code(ToneMapper.White));
+        Assert.Equal(255, ToneMapper.Code(float.PositiveInfinity));
+    }
+
+    [Fact]
+    public void The_tone_mappers_table_stays_within_one_code_of_the_exact_curve_and_encoding()
+    {
+        // Exact: Reinhard et al. 2002 eq. 4, then IEC 61966-2-1 §5.2, in double precision; the table (1024 steps per
+        // octave of exposed value) may differ by at most one 8-bit step anywhere, from far below visibility to past white.
+        for (int i = 0; i <= 200_000; i++)
         {
-            float display = i / 100_000f;
-            double exact = 255 * SrgbTransfer.Encode(display);
-            Assert.InRange(ToneMapper.Encode8(display), exact - 1, exact + 1);
+            float exposed = (float)Math.Pow(2, -20 + 25.0 * i / 200_000);
+            double x = Math.Min(exposed, ToneMapper.White);
+            double exact = 255 * SrgbTransfer.Encode(Math.Min(1, x * (1 + x / (ToneMapper.White * ToneMapper.White)) / (1 + x)));
+            Assert.InRange(ToneMapper.Code(exposed), exact - 1, exact + 1);
         }
     }
 
