@@ -1,6 +1,5 @@
 using System.Numerics;
 using System.Runtime.CompilerServices;
-using System.Runtime.InteropServices;
 using System.Runtime.Intrinsics;
 using Lightward.Optics;
 using Lightward.Rendering.Projections;
@@ -238,12 +237,12 @@ public sealed class StarSplatter
         int i = start;
         for (; i <= end - Vector<float>.Count; i += Vector<float>.Count)
         {
-            Vector<float> x = Load(_x, i), y = Load(_y, i);
-            Vector<float> luminance = redWeight * Load(red, i) + greenWeight * Load(green, i) + blueWeight * Load(blue, i);
+            Vector<float> x = new Vector<float>(_x, i), y = new Vector<float>(_y, i);
+            Vector<float> luminance = redWeight * new Vector<float>(red, i) + greenWeight * new Vector<float>(green, i) + blueWeight * new Vector<float>(blue, i);
             // x == x is false for NaN (off the image).
             Vector<int> shows = Vector.Equals(x, x) & Vector.GreaterThan(luminance, Vector<float>.Zero);
-            Vector<float> level = Vector.ConditionalSelect(shows, luminance * Load(_radianceScale, i), Vector<float>.Zero);
-            Store(_pixelLuminance, i, level);
+            Vector<float> level = Vector.ConditionalSelect(shows, luminance * new Vector<float>(_radianceScale, i), Vector<float>.Zero);
+            level.CopyTo(_pixelLuminance, i);
             Vector<int> onImage = Vector.GreaterThanOrEqual(x, Vector<float>.Zero) & Vector.LessThan(x, right)
                 & Vector.GreaterThanOrEqual(y, Vector<float>.Zero) & Vector.LessThan(y, bottom);
             if (onImage == Vector<int>.Zero) continue;
@@ -259,14 +258,6 @@ public sealed class StarSplatter
         }
     }
 
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static Vector<float> Load(float[] array, int i) =>
-        Vector.LoadUnsafe(ref MemoryMarshal.GetArrayDataReference(array), (nuint)i);
-
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static void Store(float[] array, int i, Vector<float> value) =>
-        value.StoreUnsafe(ref MemoryMarshal.GetArrayDataReference(array), (nuint)i);
-
     /// <summary>
     /// Hides stars off the image, picks each visible star's footprint from its exposed flux, notes the tiles the
     /// footprint touches and counts the chunk's stars per tile. Runs of stars that are all bilinear or hidden (nearly
@@ -280,7 +271,7 @@ public sealed class StarSplatter
         int i = start;
         for (; i <= end - Vector<float>.Count; i += Vector<float>.Count)
         {
-            Vector<float> level = Load(_pixelLuminance, i);
+            Vector<float> level = new Vector<float>(_pixelLuminance, i);
             Vector<int> shows = Vector.GreaterThan(level, Vector<float>.Zero);
             if ((shows & Vector.GreaterThan(level * exposureScale, bilinearLimit)) != Vector<int>.Zero)
             {
@@ -288,8 +279,8 @@ public sealed class StarSplatter
                 continue;
             }
             // A bilinear sample covers rows floor(y − ½) and the one below, columns likewise (as in AssignStar).
-            Vector<int> top = Vector.ConvertToInt32(Vector.Floor(Load(_y, i) - half));
-            Vector<int> left = Vector.ConvertToInt32(Vector.Floor(Load(_x, i) - half));
+            Vector<int> top = Vector.ConvertToInt32(Vector.Floor(new Vector<float>(_y, i) - half));
+            Vector<int> left = Vector.ConvertToInt32(Vector.Floor(new Vector<float>(_x, i) - half));
             shows &= Vector.GreaterThanOrEqual(top, new Vector<int>(-1)) & Vector.LessThanOrEqual(top, lastRow)
                 & Vector.GreaterThanOrEqual(left, new Vector<int>(-1)) & Vector.LessThanOrEqual(left, lastColumn);
             Vector<int> firstBand = Vector.ShiftRightArithmetic(Vector.Max(top, Vector<int>.Zero), BandShift);
