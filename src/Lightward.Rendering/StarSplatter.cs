@@ -278,7 +278,7 @@ public sealed class StarSplatter
                 for (int star = i; star < i + Vector<float>.Count; star++) AssignStar(star, cursors);
                 continue;
             }
-            // A bilinear sample covers rows floor(y − ½) and the one below, columns likewise (as in AssignStar).
+            // A bilinear sample covers rows floor(y − ½) and the one below, columns likewise (as SplatRecord.At anchors it).
             Vector<int> top = Vector.ConvertToInt32(Vector.Floor(new Vector<float>(_y, i) - half));
             Vector<int> left = Vector.ConvertToInt32(Vector.Floor(new Vector<float>(_x, i) - half));
             shows &= Vector.GreaterThanOrEqual(top, new Vector<int>(-1)) & Vector.LessThanOrEqual(top, lastRow)
@@ -306,31 +306,16 @@ public sealed class StarSplatter
     /// <summary><see cref="AssignFootprints"/> for one star.</summary>
     private void AssignStar(int i, int cursors)
     {
-        float y = _y[i];
         if (!(_pixelLuminance[i] > 0))
         {
             _footprint[i] = Hidden;
             return;
         }
         int footprint = FootprintFor(_pixelLuminance[i] * _exposureScale);
-        int firstRow, lastRow, firstColumn, lastColumn;
-        if (footprint == Bilinear)
-        {
-            // A bilinear sample covers rows floor(y − ½) and the one below, columns likewise.
-            firstRow = FloorToInt(y - 0.5f);
-            firstColumn = FloorToInt(_x[i] - 0.5f);
-            lastRow = firstRow + 1;
-            lastColumn = firstColumn + 1;
-        }
-        else
-        {
-            // A kernel covers its radius around floor(y), floor(x).
-            int radius = PointSpreadKernels.Radii[footprint - 1], centreRow = FloorToInt(y), centreColumn = FloorToInt(_x[i]);
-            firstRow = centreRow - radius;
-            lastRow = centreRow + radius;
-            firstColumn = centreColumn - radius;
-            lastColumn = centreColumn + radius;
-        }
+        SplatRecord anchor = SplatRecord.At(_x[i], _y[i], 0, 0, 0, footprint);
+        // A bilinear sample covers its anchor pixel and the next; a kernel, its radius around the anchor.
+        int before = footprint == Bilinear ? 0 : PointSpreadKernels.Radii[footprint - 1], after = footprint == Bilinear ? 1 : before;
+        int firstRow = anchor.Row - before, lastRow = anchor.Row + after, firstColumn = anchor.Column - before, lastColumn = anchor.Column + after;
         if (lastRow < 0 || firstRow >= _height || lastColumn < 0 || firstColumn >= _width)
         {
             _footprint[i] = Hidden;

@@ -29,18 +29,15 @@ public static class ToneMapper
     private static readonly int FirstStep = BitConverter.SingleToInt32Bits(DarkestExposed) >> (23 - StepBits);
     private static readonly int LastEntry = (BitConverter.SingleToInt32Bits(White) >> (23 - StepBits)) - FirstStep;
 
-    private const float InverseWhiteSquared = 1 / (White * White);
-
     /// <summary>The 8-bit code for each step of exposed values, as ints so that whole vectors gather at once.</summary>
     private static readonly int[] EncodedTable = BuildEncodedTable();
 
-    /// <summary>The tone curve for one exposed linear value, in [0, 1].</summary>
-    public static float Curve(float exposed)
+    /// <summary>The tone curve for one exposed linear value, in [0, 1]; the mapper's table holds it, encoded.</summary>
+    public static double Curve(double exposed)
     {
         // Clamping the input first keeps huge and infinite values white (the curve is exactly 1 at W); NaN goes to 0.
-        float x = exposed > 0 ? exposed : 0;
-        x = x < White ? x : White;
-        return MathF.Min(1, x * (1 + x * InverseWhiteSquared) / (1 + x));
+        double x = exposed > 0 ? Math.Min(exposed, White) : 0;
+        return Math.Min(1, x * (1 + x / (White * White)) / (1 + x));
     }
 
     /// <summary>The 8-bit sRGB code the mapper writes for an exposed linear value (HDR × exposure scale).</summary>
@@ -178,9 +175,7 @@ public static class ToneMapper
         {
             int bits = (FirstStep + i) << (23 - StepBits);
             double low = BitConverter.Int32BitsToSingle(bits), high = BitConverter.Int32BitsToSingle(bits + (1 << (23 - StepBits)));
-            double x = Math.Min(Math.Sqrt(low * high), White);
-            double display = Math.Min(1, x * (1 + x / (White * White)) / (1 + x));
-            table[i] = (int)Math.Round(255 * SrgbTransfer.Encode(display), MidpointRounding.AwayFromZero);
+            table[i] = (int)Math.Round(255 * SrgbTransfer.Encode(Curve(Math.Sqrt(low * high))), MidpointRounding.AwayFromZero);
         }
         return table;
     }

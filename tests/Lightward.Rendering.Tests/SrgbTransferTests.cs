@@ -58,11 +58,11 @@ public class SrgbTransferTests
         Assert.Equal(1f, ToneMapper.Curve(ToneMapper.White), 6);
         Assert.Equal(0f, ToneMapper.Curve(float.NaN));
         Assert.Equal(1f, ToneMapper.Curve(float.PositiveInfinity));
-        float previous = 0;
+        double previous = 0;
         for (float x = 0; x < 100; x += 0.01f)
         {
-            float t = ToneMapper.Curve(x);
-            Assert.InRange(t, previous, 1f);
+            double t = ToneMapper.Curve(x);
+            Assert.InRange(t, previous, 1);
             previous = t;
         }
     }
