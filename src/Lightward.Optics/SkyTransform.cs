@@ -32,6 +32,7 @@ public sealed unsafe class SkyTransform
     private readonly List<Piece> pieces = [];
     private StarCatalog? trigCatalog;
     private (double[] Cos, double[] Sin) cellRadiusTrig;
+    private Vec3[] edgeNormals = [];
     private readonly BlackbodyTable table = BlackbodyTable.Shared;
     private readonly float tableOrigin = (float)BlackbodyTable.LogTemperatureMin;
     private readonly float tableScale = (float)(1 / BlackbodyTable.LogStep);
@@ -98,6 +99,7 @@ public sealed unsafe class SkyTransform
         Vec3 motion = shipFrame.Velocity.Direction.NormalizedOr(Vec3.UnitZ);
         var cappedVelocity = new Velocity(rapidity, motion);
         Vec3 viewAxisComoving = shipFrame.Orientation.Rotate(view.Axis);
+        ReadOnlySpan<Vec3> edgesComoving = EdgesComoving(view.EdgePlanes.Span, shipFrame.Orientation);
         double expMinus = Math.Exp(-rapidity), sinh = Math.Sinh(rapidity);
         (double[] cosRadius, double[] sinRadius) = CellRadiusTrig(catalog);
         int kept = 0, runStart = 0, runLength = 0;
@@ -110,8 +112,10 @@ public sealed unsafe class SkyTransform
             double cosCentre = Math.Clamp(Vec3.Dot(axis, motion), -1, 1), sinCentre = Math.Sqrt(1 - cosCentre * cosCentre);
             double cosFarthest = cosCentre <= -cosRadius[cell] ? -1 : cosCentre * cosRadius[cell] - sinCentre * sinRadius[cell];
             double dopplerMin = expMinus + sinh * (1 + cosFarthest);
-            double reach = view.HalfAngle + catalog.CellRadius[cell] / dopplerMin;
-            if (reach < Math.PI && Vec3.Dot(Aberration.Apparent(axis, cappedVelocity), viewAxisComoving) < Math.Cos(reach)) continue;
+            double imageRadius = catalog.CellRadius[cell] / dopplerMin, reach = view.HalfAngle + imageRadius;
+            Vec3 apparentAxis = Aberration.Apparent(axis, cappedVelocity);
+            if (reach < Math.PI && Vec3.Dot(apparentAxis, viewAxisComoving) < Math.Cos(reach)) continue;
+            if (BeyondAnEdge(apparentAxis, imageRadius, edgesComoving)) continue;
             if (runLength > 0 && runStart + runLength == first) runLength += length;
             else
             {
@@ -123,6 +127,30 @@ public sealed unsafe class SkyTransform
         }
         AddPieces(runStart, runLength, kept - runLength);
         return kept;
+    }
+
+    /// <summary>Slack (radians) on each edge plane for the single-precision rounding of star directions.</summary>
+    private const double EdgeSlack = 1e-4;
+
+    /// <summary>The view's edge planes' normals turned from ship axes into the comoving axes the cells are tested in.</summary>
+    private ReadOnlySpan<Vec3> EdgesComoving(ReadOnlySpan<Vec3> edgePlanes, Rotation shipToComoving)
+    {
+        if (edgeNormals.Length < edgePlanes.Length) edgeNormals = new Vec3[edgePlanes.Length];
+        for (int i = 0; i < edgePlanes.Length; i++) edgeNormals[i] = shipToComoving.Rotate(edgePlanes[i]);
+        return edgeNormals.AsSpan(0, edgePlanes.Length);
+    }
+
+    /// <summary>
+    /// True when a cap of <paramref name="radius"/> around <paramref name="axis"/> lies wholly on the outer side of an
+    /// edge plane: its axis is farther than the radius below the plane, dot(axis, n) &lt; −sin(radius).
+    /// </summary>
+    private static bool BeyondAnEdge(Vec3 axis, double radius, ReadOnlySpan<Vec3> edges)
+    {
+        if (edges.IsEmpty || radius + EdgeSlack >= Math.PI / 2) return false;
+        double below = -Math.Sin(radius + EdgeSlack);
+        foreach (Vec3 inward in edges)
+            if (Vec3.Dot(axis, inward) < below) return true;
+        return false;
     }
 
     /// <summary>cos and sin of each cell's radius, computed once per catalogue.</summary>

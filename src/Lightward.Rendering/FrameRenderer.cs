@@ -29,6 +29,7 @@ public sealed class FrameRenderer
     private Camera? _projectionCamera;
     private Projection? _projection;
     private bool _backgroundPainted;
+    private Vec3[] _edgePlanes = [];
     /// <summary>True while the HDR buffer is known to be all zeros: new, or zeroed by the last tone map.</summary>
     private bool _hdrIsZero;
 
@@ -105,7 +106,16 @@ public sealed class FrameRenderer
     /// <summary>Optics: apparent direction (ship axes), colour and brightness of every star that can appear in the view.</summary>
     private void ApplyOptics(FrameContext frame) =>
         _skyTransform.Apply(frame.Scene.Sky, frame.Observer.Ship.Frame, _apparentStars,
-            new ViewCone(frame.CameraToShip.Rotate(Vec3.UnitZ), frame.Projection.EnclosingHalfAngle), _parallel);
+            new ViewCone(frame.CameraToShip.Rotate(Vec3.UnitZ), frame.Projection.EnclosingHalfAngle, EdgePlanesInShipAxes(frame)), _parallel);
+
+    /// <summary>The projection's edge planes turned from camera into ship axes (into a buffer kept between frames).</summary>
+    private ReadOnlyMemory<Vec3> EdgePlanesInShipAxes(FrameContext frame)
+    {
+        ReadOnlySpan<Vec3> planes = frame.Projection.EdgePlanes.Span;
+        if (_edgePlanes.Length < planes.Length) _edgePlanes = new Vec3[planes.Length];
+        for (int i = 0; i < planes.Length; i++) _edgePlanes[i] = frame.CameraToShip.Rotate(planes[i]);
+        return _edgePlanes.AsMemory(0, planes.Length);
+    }
 
     /// <summary>Projection: apparent directions → camera axes → pixels.</summary>
     private void ProjectStars(FrameContext frame) =>

@@ -107,28 +107,58 @@ public class SkyTransformTests
         // same numbers (to single-precision rounding: a cell kept alone may go through the scalar formulas), and the
         // kept stars come in catalogue order. Views look ahead, aside and behind the motion.
         LorentzFrame frame = Frame(rapidity);
+        foreach (Vec3 axis in ViewAxes(frame))
+        {
+            int kept = AssertKeepsEveryStarInside(frame, new ViewCone(axis, halfAngle), direction => Vec3.AngleBetween(direction, axis) <= halfAngle);
+            if (halfAngle < 0.2 && rapidity == 0) Assert.True(kept < Sky.Count / 10, $"a narrow view kept {kept} of {Sky.Count} stars");
+        }
+    }
+
+    [Theory]
+    [MemberData(nameof(Rapidities))]
+    public void Edge_planes_keep_every_star_that_appears_between_them_and_drop_most_of_the_rest_of_the_cone(double rapidity)
+    {
+        // A 16:9 screen's pyramid (half-widths tan 45° and tan 29.4°) inside its enclosing cone: the planes only ever
+        // drop stars outside the pyramid, and at rest they drop a good share of the cone's.
+        LorentzFrame frame = Frame(rapidity);
+        foreach (Vec3 axis in ViewAxes(frame))
+        {
+            Rotation toShip = Rotation.FromAxisAngle(Vec3.Cross(Vec3.UnitZ, axis).NormalizedOr(Vec3.UnitX), Vec3.AngleBetween(Vec3.UnitZ, axis));
+            double across = 1, down = 0.5625, halfAngle = Math.Atan(Math.Sqrt(across * across + down * down)) + 1e-4;
+            Vec3[] planes = [.. new[] { new Vec3(1, 0, across), new Vec3(-1, 0, across), new Vec3(0, 1, down), new Vec3(0, -1, down) }
+                .Select(n => toShip.Rotate(n.NormalizedOr(Vec3.UnitZ)))];
+            int inPyramid = AssertKeepsEveryStarInside(frame, new ViewCone(axis, halfAngle, planes),
+                direction => planes.All(n => Vec3.Dot(direction, n) >= 0));
+            int inCone = AssertKeepsEveryStarInside(frame, new ViewCone(axis, halfAngle), direction => Vec3.AngleBetween(direction, axis) <= halfAngle);
+            if (rapidity == 0) Assert.True(inPyramid < 0.85 * inCone, $"the planes kept {inPyramid} of the cone's {inCone} stars");
+        }
+    }
+
+    private static Vec3[] ViewAxes(LorentzFrame frame) =>
+        [Vec3.UnitZ, new Vec3(1, 0.2, 0).NormalizedOr(Vec3.UnitX), -Vec3.UnitZ, frame.Orientation.Inverse.Rotate(frame.Velocity.Direction)];
+
+    /// <summary>Culls to <paramref name="view"/> and checks every star the whole-sky pass puts <paramref name="inside"/> it was kept with the same values, in order; returns how many were kept.</summary>
+    private static int AssertKeepsEveryStarInside(LorentzFrame frame, ViewCone view, Func<Vec3, bool> inside)
+    {
         var everything = new ApparentStars();
         var transform = new SkyTransform();
         transform.Apply(Sky, frame, everything);
-        foreach (Vec3 axis in new[] { Vec3.UnitZ, new Vec3(1, 0.2, 0).NormalizedOr(Vec3.UnitX), -Vec3.UnitZ, frame.Orientation.Inverse.Rotate(frame.Velocity.Direction) })
+        var kept = new ApparentStars();
+        transform.Apply(Sky, frame, kept, view, new ParallelOptions());
+        bool Same(int all, int cut) =>
+            Math.Abs(everything.X[all] - kept.X[cut]) <= 1e-5f && Math.Abs(everything.Y[all] - kept.Y[cut]) <= 1e-5f
+            && Math.Abs(everything.Z[all] - kept.Z[cut]) <= 1e-5f && Math.Abs(everything.G[all] - kept.G[cut]) <= 1e-4f * everything.G[all] + 1e-37f;
+        int next = 0, insideCount = 0;
+        for (int i = 0; i < everything.Count; i++)
         {
-            var kept = new ApparentStars();
-            transform.Apply(Sky, frame, kept, new ViewCone(axis, halfAngle), new ParallelOptions());
-            bool Same(int all, int cut) =>
-                Math.Abs(everything.X[all] - kept.X[cut]) <= 1e-5f && Math.Abs(everything.Y[all] - kept.Y[cut]) <= 1e-5f
-                && Math.Abs(everything.Z[all] - kept.Z[cut]) <= 1e-5f && Math.Abs(everything.G[all] - kept.G[cut]) <= 1e-4f * everything.G[all] + 1e-37f;
-            int next = 0, inside = 0;
-            for (int i = 0; i < everything.Count; i++)
-            {
-                bool isKept = next < kept.Count && Same(i, next);
-                if (isKept) next++;
-                if (Vec3.AngleBetween(new Vec3(everything.X[i], everything.Y[i], everything.Z[i]), axis) > halfAngle) continue;
-                inside++;
-                Assert.True(isKept, $"star {i} appears inside the cone around {axis} but was dropped");
-            }
-            Assert.Equal(kept.Count, next);
-            Assert.True(kept.Count >= inside);
-            if (halfAngle < 0.2 && rapidity == 0) Assert.True(kept.Count < Sky.Count / 10, $"a narrow view kept {kept.Count} of {Sky.Count} stars");
+            bool isKept = next < kept.Count && Same(i, next);
+            if (isKept) next++;
+            if (!inside(new Vec3(everything.X[i], everything.Y[i], everything.Z[i]))) continue;
+            insideCount++;
+            Assert.True(isKept, $"star {i} appears inside the view around {view.Axis} but was dropped");
         }
+        Assert.Equal(kept.Count, next);
+        Assert.True(kept.Count >= insideCount);
+        return kept.Count;
     }
 }

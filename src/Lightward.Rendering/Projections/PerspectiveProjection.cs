@@ -24,7 +24,19 @@ public sealed class PerspectiveProjection : Projection
         _centreX = width / 2f;
         _centreY = height / 2f;
         _focal = (float)FocalLength;
+        // x ≥ −margin ⇔ dx/dz ≥ −(cx + margin)/f, and likewise for the other three edges of the kept margin.
+        double across = (width / 2.0 + StarMargin) / FocalLength, down = (height / 2.0 + StarMargin) / FocalLength;
+        _edgePlanes =
+        [
+            new Vec3(1, 0, across).NormalizedOr(Vec3.UnitZ), new Vec3(-1, 0, across).NormalizedOr(Vec3.UnitZ),
+            new Vec3(0, 1, down).NormalizedOr(Vec3.UnitZ), new Vec3(0, -1, down).NormalizedOr(Vec3.UnitZ),
+        ];
     }
+
+    private readonly Vec3[] _edgePlanes;
+
+    /// <summary>The four planes through the eye and the edges of the kept margin around the image.</summary>
+    public override ReadOnlyMemory<Vec3> EdgePlanes => _edgePlanes;
 
     public double HorizontalFieldOfView { get; }
 

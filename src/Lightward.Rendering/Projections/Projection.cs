@@ -33,6 +33,13 @@ public abstract class Projection
     /// </summary>
     public abstract double EnclosingHalfAngle { get; }
 
+    /// <summary>
+    /// Planes through the eye that bound, with the enclosing cone, the directions for which
+    /// <see cref="ProjectDirections"/> keeps a star: inward unit normals n in camera axes, the star kept only where
+    /// d · n ≥ 0 for each. Empty when the cone is all the bound there is.
+    /// </summary>
+    public virtual ReadOnlyMemory<Vec3> EdgePlanes => default;
+
     /// <summary>Unit direction in camera axes → pixel position; false when the direction is not on the image.</summary>
     public abstract bool TryProject(Vec3 direction, out double x, out double y);
 
