@@ -51,7 +51,7 @@ public sealed class FrameLoop(IFrameHost host, FlightSession session, IFrameRend
         CockpitView view = session.View();
         renderer.Render(view, Frame);
         listener?.OnFrame(session, view, loopSeconds);
-        host.Present(Frame.Pixels);
+        host.Present(Frame.ReadOnlyPixels);
         FramesShown++;
     }
 }

@@ -32,6 +32,8 @@ public sealed class FrameRenderer
     private Vec3[] _edgePlanes = [];
     /// <summary>True while the HDR buffer is known to be all zeros: new, or zeroed by the last tone map.</summary>
     private bool _hdrIsZero;
+    /// <summary>Whether the output image's note of lit groups held when this frame's composite-and-tone-map pass began.</summary>
+    private bool _litKnown;
 
     /// <param name="maxThreads">Threads to use; −1 for all cores. The image does not depend on it.</param>
     public FrameRenderer(int maxThreads = -1)
@@ -175,6 +177,10 @@ public sealed class FrameRenderer
     /// </summary>
     private void CompositeLayersAndToneMap(FrameContext frame)
     {
+        // A frame the background lit everywhere is written everywhere; a frame of marked groups keeps the image's note of lit groups.
+        bool markedOnly = !frame.Hdr.WhollyTouched;
+        _litKnown = frame.Image.LitGroupsKnown && markedOnly;
+        frame.Image.LitGroupsKnown = false; // until every band is written
         try
         {
             Parallel.For(0, (frame.Hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, _parallel,
@@ -188,6 +194,7 @@ public sealed class FrameRenderer
         }
         frame.Hdr.WhollyTouched = false;
         _hdrIsZero = true;
+        frame.Image.LitGroupsKnown = markedOnly;
     }
 
     private unsafe HdrFrame CompositeAndToneMapBand(int band, ParallelLoopState _, HdrFrame buffer)
@@ -199,8 +206,11 @@ public sealed class FrameRenderer
         HdrBand rows = inPlace ? new HdrBand(hdr, 0, firstRow, endRow) : new HdrBand(buffer, firstRow, firstRow, endRow);
         if (!inPlace) _splatter.SplatBand(buffer, band);
         foreach (IFrameLayer layer in Layers) layer.Composite(frame, rows);
-        fixed (byte* pixels = frame.Image.Pixels)
-            ToneMapper.MapAndClearRows(rows.Buffer, frame.ExposureScale, (uint*)pixels + (long)rows.Origin * hdr.Width, firstRow - rows.Origin, endRow - rows.Origin);
+        RgbaImage image = frame.Image;
+        fixed (byte* pixels = image.RendererPixels)
+        fixed (ushort* lit = image.LitGroups)
+            ToneMapper.MapAndClearRows(rows.Buffer, frame.ExposureScale, (uint*)pixels + (long)rows.Origin * hdr.Width, lit + rows.Origin * image.LitEntriesPerRow,
+                _litKnown, firstRow - rows.Origin, endRow - rows.Origin);
         return buffer;
     }
 

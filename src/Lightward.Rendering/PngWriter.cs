@@ -27,7 +27,7 @@ public static class PngWriter
         using var pixmap = new SKPixmap();
         unsafe
         {
-            fixed (byte* pixels = image.Pixels)
+            fixed (byte* pixels = image.ReadOnlyPixels)
             {
                 pixmap.Reset(info, (IntPtr)pixels, info.RowBytes);
                 using SKData data = pixmap.Encode(SKPngEncoderOptions.Default) ?? throw new InvalidOperationException("PNG encoding failed");

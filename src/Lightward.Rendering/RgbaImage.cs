@@ -1,19 +1,60 @@
 namespace Lightward.Rendering;
 
-/// <summary>An 8-bit sRGB image, 4 bytes per pixel in memory order R, G, B, A (alpha 255), rows top to bottom.</summary>
+/// <summary>
+/// An 8-bit sRGB image, 4 bytes per pixel in memory order R, G, B, A (alpha 255), rows top to bottom.
+/// <para>
+/// The renderer keeps a note of which pixel groups of a star field it left lit, so the next frame need only write
+/// black over those instead of over the whole image (most of a star field is black, and writing 8 MB of black per
+/// 1080p frame costs about as much memory bandwidth as everything else). The note holds only while nobody else has
+/// had the pixels to write: taking <see cref="Pixels"/> drops it; code that only reads uses <see cref="ReadOnlyPixels"/>.
+/// </para>
+/// </summary>
 public sealed class RgbaImage
 {
+    /// <summary>Groups of <see cref="HdrFrame.GroupWidth"/> pixels noted per entry of <see cref="LitGroups"/>.</summary>
+    internal const int GroupsPerLitEntry = 16;
+
+    private readonly byte[] _pixels;
+
     public RgbaImage(int width, int height)
     {
         if (width <= 0 || height <= 0) throw new ArgumentOutOfRangeException(nameof(width), "image size must be positive");
         Width = width;
         Height = height;
-        Pixels = new byte[checked(width * height * 4)];
+        _pixels = new byte[checked(width * height * 4)];
+        LitEntriesPerRow = (width + GroupsPerLitEntry * HdrFrame.GroupWidth - 1) / (GroupsPerLitEntry * HdrFrame.GroupWidth);
+        LitGroups = new ushort[LitEntriesPerRow * height];
     }
 
     public int Width { get; }
     public int Height { get; }
-    public byte[] Pixels { get; }
+
+    /// <summary>The pixels, to write (or read): taking them drops the renderer's note of which groups are lit.</summary>
+    public byte[] Pixels
+    {
+        get
+        {
+            LitGroupsKnown = false;
+            return _pixels;
+        }
+    }
+
+    /// <summary>The pixels, to read only: the renderer's note stays.</summary>
+    public ReadOnlySpan<byte> ReadOnlyPixels => _pixels;
+
+    /// <summary>The pixels for the renderer, which keeps <see cref="LitGroups"/> true itself.</summary>
+    internal byte[] RendererPixels => _pixels;
+
+    /// <summary>
+    /// Per row, one entry per <see cref="GroupsPerLitEntry"/> groups: bit g set unless group g of the entry is known
+    /// to be all black. Meaningful only while <see cref="LitGroupsKnown"/>.
+    /// </summary>
+    internal ushort[] LitGroups { get; }
+
+    internal int LitEntriesPerRow { get; }
+
+    /// <summary>True while the pixels are exactly as the renderer's last tone map left them, so that <see cref="LitGroups"/> holds.</summary>
+    internal bool LitGroupsKnown { get; set; }
 
     /// <summary>(R, G, B) of one pixel.</summary>
     public (byte R, byte G, byte B) this[int x, int y]
@@ -21,7 +62,7 @@ public sealed class RgbaImage
         get
         {
             int offset = (y * Width + x) * 4;
-            return (Pixels[offset], Pixels[offset + 1], Pixels[offset + 2]);
+            return (_pixels[offset], _pixels[offset + 1], _pixels[offset + 2]);
         }
     }
 }

@@ -62,6 +62,8 @@ public sealed class StarSplatter
     private AxesTransform _shipToCamera;
     private HdrFrame? _frame;
     private RgbaImage? _image;
+    /// <summary>Whether <see cref="_image"/>'s note of lit groups held when this frame's tone map began.</summary>
+    private bool _litKnown;
     private int _width, _height;
     private float _exposureScale;
     private readonly Action<int> _projectChunk, _assignChunk, _fillChunk, _splatBandIntoFrame, _splatBandIntoImage;
@@ -119,7 +121,10 @@ public sealed class StarSplatter
     {
         Bin(image.Width, image.Height, exposureScale, parallel);
         _image = image;
+        _litKnown = image.LitGroupsKnown;
+        image.LitGroupsKnown = false; // until every band is written
         Parallel.For(0, _bandCount, parallel, _splatBandIntoImage);
+        image.LitGroupsKnown = true;
     }
 
     /// <summary>
@@ -426,12 +431,14 @@ public sealed class StarSplatter
     private unsafe void SplatBandIntoImage(int band)
     {
         const int TilePixels = BandHeight * TileWidth, GroupsPerTileRow = TileWidth / HdrFrame.GroupWidth;
+        const int LitEntriesPerTile = GroupsPerTileRow / RgbaImage.GroupsPerLitEntry;
         // The scratch tile is all zeros between tiles: the tone map zeroes what it reads, and nothing else was written.
         float* scratch = stackalloc float[3 * TilePixels];
         byte* marks = stackalloc byte[BandHeight * GroupsPerTileRow];
         new Span<float>(scratch, 3 * TilePixels).Clear();
         new Span<byte>(marks, BandHeight * GroupsPerTileRow).Clear();
-        fixed (byte* pixels = _image!.Pixels)
+        fixed (byte* pixels = _image!.RendererPixels)
+        fixed (ushort* lit = _image.LitGroups)
         {
             uint* rgba = (uint*)pixels;
             for (int tileColumn = 0; tileColumn < _tilesPerBand; tileColumn++)
@@ -443,7 +450,8 @@ public sealed class StarSplatter
                 {
                     int at = (row - clip.FirstRow) * TileWidth;
                     ToneMapper.MapMarkedRow(scratch + at, scratch + TilePixels + at, scratch + 2 * TilePixels + at, marks + (row - clip.FirstRow) * GroupsPerTileRow,
-                        rgba + (long)row * _width + clip.FirstColumn, clip.EndColumn - clip.FirstColumn, _exposureScale);
+                        rgba + (long)row * _width + clip.FirstColumn, clip.EndColumn - clip.FirstColumn, _exposureScale,
+                        lit + row * _image.LitEntriesPerRow + tileColumn * LitEntriesPerTile, _litKnown);
                 }
             }
         }
@@ -463,11 +471,15 @@ public sealed class StarSplatter
         int left = star.Column, top = star.Row;
         if (left >= clip.FirstColumn && left + 2 <= clip.EndColumn && top >= clip.FirstRow && top + 2 <= clip.EndRow)
         {
-            // Four weights, the same products as the clipped loop.
+            // Four weights, the same products as the clipped loop, taken into locals once: the pixel stores could alias
+            // the record as far as the compiler knows, so it would reload and recompute them for every channel.
+            float ax = star.OffsetX, ay = star.OffsetY;
+            var weights = new SquareWeights((1 - ay) * (1 - ax), (1 - ay) * ax, ay * (1 - ax), ay * ax);
+            float red = star.Red, green = star.Green, blue = star.Blue;
             int index = target.Index(top, left), below = index + target.Stride;
-            AddPair(target.Red, index, below, star.OffsetX, star.OffsetY, star.Red);
-            AddPair(target.Green, index, below, star.OffsetX, star.OffsetY, star.Green);
-            AddPair(target.Blue, index, below, star.OffsetX, star.OffsetY, star.Blue);
+            AddSquare(target.Red, index, below, weights, red);
+            AddSquare(target.Green, index, below, weights, green);
+            AddSquare(target.Blue, index, below, weights, blue);
             target.MarkSquare(top, left);
         }
         else SplatBilinearClipped(target, star, clip);
@@ -495,13 +507,16 @@ public sealed class StarSplatter
         }
     }
 
+    /// <summary>A bilinear sample's weights on its anchor pixel, the one right of it, the one below and the one below right.</summary>
+    private readonly record struct SquareWeights(float Anchor, float Right, float Below, float BelowRight);
+
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static unsafe void AddPair(float* plane, int index, int below, float ax, float ay, float value)
+    private static unsafe void AddSquare(float* plane, int index, int below, in SquareWeights weights, float value)
     {
-        plane[index] += (1 - ay) * (1 - ax) * value;
-        plane[index + 1] += (1 - ay) * ax * value;
-        plane[below] += ay * (1 - ax) * value;
-        plane[below + 1] += ay * ax * value;
+        plane[index] += weights.Anchor * value;
+        plane[index + 1] += weights.Right * value;
+        plane[below] += weights.Below * value;
+        plane[below + 1] += weights.BelowRight * value;
     }
 
     private unsafe void SplatKernel(in SplatTarget target, in SplatRecord star, in TileBounds clip)

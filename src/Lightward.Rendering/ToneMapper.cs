@@ -48,9 +48,11 @@ public static class ToneMapper
     /// pixels (R, G, B, A bytes in memory order; alpha 255) at <paramref name="rgba"/>, which holds the whole image,
     /// and zeroes those HDR rows while their cache lines are at hand, which saves the next frame a clearing pass.
     /// Unless the frame is <see cref="HdrFrame.WhollyTouched"/>, only the touched pixel groups are read (the rest are
-    /// zero, so they map to black and are written as black) and their marks are cleared.
+    /// zero, so they map to black and are written as black) and their marks are cleared; <paramref name="lit"/> (laid
+    /// out like the image's note of lit groups, row for row with <paramref name="rgba"/>; null for none) is used and
+    /// updated as in <see cref="MapMarkedRow"/>.
     /// </summary>
-    public static unsafe void MapAndClearRows(HdrFrame hdr, float exposureScale, uint* rgba, int firstRow, int endRow)
+    public static unsafe void MapAndClearRows(HdrFrame hdr, float exposureScale, uint* rgba, ushort* lit, bool litKnown, int firstRow, int endRow)
     {
         fixed (float* red = hdr.Red, green = hdr.Green, blue = hdr.Blue)
         fixed (byte* touched = hdr.Touched)
@@ -62,10 +64,12 @@ public static class ToneMapper
                 new Span<byte>(touched + firstRow * hdr.GroupsPerRow, (endRow - firstRow) * hdr.GroupsPerRow).Clear();
                 return;
             }
+            int litPerRow = (hdr.GroupsPerRow + MarkBlock - 1) / MarkBlock;
             for (int row = firstRow; row < endRow; row++)
             {
                 int rowStart = row * hdr.Width;
-                MapMarkedRow(red + rowStart, green + rowStart, blue + rowStart, touched + row * hdr.GroupsPerRow, rgba + rowStart, hdr.Width, exposureScale);
+                MapMarkedRow(red + rowStart, green + rowStart, blue + rowStart, touched + row * hdr.GroupsPerRow, rgba + rowStart, hdr.Width, exposureScale,
+                    lit == null ? null : lit + row * litPerRow, litKnown);
             }
         }
     }
@@ -73,13 +77,18 @@ public static class ToneMapper
     private const uint OpaqueBlack = 0xFF000000u;
 
     /// <summary>
-    /// One row of <paramref name="width"/> pixels with a mark per <see cref="HdrFrame.GroupWidth"/>-pixel group: the
-    /// whole row is written black (what an untouched, all-zero group maps to), then each marked group is mapped, its
-    /// HDR values zeroed and its mark cleared.
+    /// One row of <paramref name="width"/> pixels with a mark per <see cref="HdrFrame.GroupWidth"/>-pixel group: each
+    /// marked group is mapped, its HDR values zeroed and its mark cleared, and every other group is black (what an
+    /// untouched, all-zero group maps to). When <paramref name="litKnown"/>, the row's groups not noted in
+    /// <paramref name="lit"/> (one entry per <see cref="RgbaImage.GroupsPerLitEntry"/> groups) are black already and
+    /// only the noted ones are written black; otherwise the whole row is. Either way <paramref name="lit"/> (unless
+    /// null) is left noting the marked groups.
     /// </summary>
-    internal static unsafe void MapMarkedRow(float* red, float* green, float* blue, byte* marks, uint* rgba, int width, float exposureScale)
+    internal static unsafe void MapMarkedRow(float* red, float* green, float* blue, byte* marks, uint* rgba, int width, float exposureScale,
+        ushort* lit, bool litKnown)
     {
-        new Span<uint>(rgba, width).Fill(OpaqueBlack);
+        litKnown &= lit != null;
+        if (!litKnown) new Span<uint>(rgba, width).Fill(OpaqueBlack);
         int wholeGroups = width / HdrFrame.GroupWidth, groups = (width + HdrFrame.GroupWidth - 1) / HdrFrame.GroupWidth;
         fixed (int* table = EncodedTable)
         {
@@ -90,7 +99,13 @@ public static class ToneMapper
             for (int block = 0; block < groups; block += MarkBlock)
             {
                 int blockLength = Math.Min(MarkBlock, groups - block);
-                for (uint marked = MarkedGroups(marks + block, blockLength); marked != 0; marked &= marked - 1)
+                uint marked = MarkedGroups(marks + block, blockLength);
+                ushort* noted = lit == null ? null : lit + block / MarkBlock;
+                if (litKnown)
+                    for (uint dark = *noted & ~marked; dark != 0; dark &= dark - 1)
+                        WriteBlack(rgba, (block + BitOperations.TrailingZeroCount(dark)) * HdrFrame.GroupWidth, width);
+                if (lit != null) *noted = (ushort)marked;
+                for (; marked != 0; marked &= marked - 1)
                 {
                     int group = block + BitOperations.TrailingZeroCount(marked), first = group * HdrFrame.GroupWidth;
                     if (vectorized && group < wholeGroups) MapVector(red + first, green + first, blue + first, rgba + first, scale, table);
@@ -101,8 +116,16 @@ public static class ToneMapper
         }
     }
 
-    /// <summary>Groups whose marks are read at once: a 128-bit vector of mark bytes.</summary>
-    private const int MarkBlock = 16;
+    /// <summary>Groups whose marks are read at once: a 128-bit vector of mark bytes, noted as one lit entry.</summary>
+    private const int MarkBlock = RgbaImage.GroupsPerLitEntry;
+
+    /// <summary>The group of pixels from <paramref name="first"/> written black (cut at the row's end).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe void WriteBlack(uint* rgba, int first, int width)
+    {
+        if (first + HdrFrame.GroupWidth <= width && HdrFrame.GroupWidth == Vector256<uint>.Count) Vector256.Store(Vector256.Create(OpaqueBlack), rgba + first);
+        else new Span<uint>(rgba + first, Math.Min(HdrFrame.GroupWidth, width - first)).Fill(OpaqueBlack);
+    }
 
     /// <summary>Bit g set when group g of the <paramref name="count"/> (≤ <see cref="MarkBlock"/>) at <paramref name="marks"/> is marked.</summary>
     private static unsafe uint MarkedGroups(byte* marks, int count)

@@ -75,6 +75,42 @@ public class DeterminismTests
         Assert.Equal(fresh, image.Pixels);
     }
 
+    public static TheoryData<bool, bool> FrameSequences => new()
+    {
+        // with a layer (band-by-band composite path), with someone drawing on the image between frames
+        { false, false }, { false, true }, { true, false }, { true, true },
+    };
+
+    [Theory]
+    [MemberData(nameof(FrameSequences))]
+    public void A_turning_view_rendered_frame_after_frame_into_one_image_matches_each_frame_rendered_afresh(bool withLayer, bool drawnOnBetween)
+    {
+        // The renderer writes black only over the groups it left lit in the frame before, unless the image was handed
+        // out to be written (instruments drawn on it): each frame must still be exactly what a fresh image gets.
+        var camera = new Camera(ProjectionKind.Perspective, 203, 120, Math.PI / 2, 0, Exposure.Manual(2));
+        var scene = new Scene(Sky);
+        FrameRenderer NewRenderer(int threads)
+        {
+            var renderer = new FrameRenderer(threads);
+            if (withLayer) renderer.Layers.Add(new EmptyLayer());
+            return renderer;
+        }
+        FrameRenderer renderer = NewRenderer(2);
+        var image = new RgbaImage(203, 120);
+        for (int frame = 0; frame < 6; frame++)
+        {
+            // Turning 0.3° a frame, and at frame 3 fast enough for the CMB to fill the view (every pixel written).
+            double rapidity = frame == 3 ? 12 : 0;
+            Observer observer = new(ShipState.AtRest(default) with { Frame = new LorentzFrame(new Velocity(rapidity, Vec3.UnitZ), Rotation.Identity) },
+                Rotation.FromAxisAngle(Vec3.UnitY, frame * 0.3 * Math.PI / 180));
+            var fresh = new RgbaImage(203, 120);
+            NewRenderer(1).Render(scene, observer, camera, fresh);
+            renderer.Render(scene, observer, camera, image);
+            Assert.True(fresh.ReadOnlyPixels.SequenceEqual(image.ReadOnlyPixels), $"frame {frame} differs from a fresh render");
+            if (drawnOnBetween) image.Pixels.AsSpan(4 * 203 * 50, 4 * 203 * 3).Fill(0xC8);
+        }
+    }
+
     [Fact]
     public unsafe void The_sparse_tone_map_gives_the_same_bytes_as_reading_every_pixel()
     {
@@ -93,8 +129,8 @@ public class DeterminismTests
         var fullImage = new RgbaImage(203, 70);
         fixed (byte* sparse = sparseImage.Pixels, full = fullImage.Pixels)
         {
-            ToneMapper.MapAndClearRows(marked, 0.5f, (uint*)sparse, 0, 70);
-            ToneMapper.MapAndClearRows(whole, 0.5f, (uint*)full, 0, 70);
+            ToneMapper.MapAndClearRows(marked, 0.5f, (uint*)sparse, null, false, 0, 70);
+            ToneMapper.MapAndClearRows(whole, 0.5f, (uint*)full, null, false, 0, 70);
         }
         Assert.Equal(fullImage.Pixels, sparseImage.Pixels);
         Assert.Contains(sparseImage.Pixels, b => b is > 0 and < 255);

@@ -76,7 +76,7 @@ public sealed class LiveShow(ShowScript script, Scene scene, NearFieldLayer scen
                 manualLook = (Rotation.FromAxisAngle(Vec3.UnitY, input.LookYaw) * manualLook * Rotation.FromAxisAngle(Vec3.UnitX, -input.LookPitch)).Normalized();
             sound.SetEngine(ShowSoundtrack.EngineLevel(_timeline, Operator.ShowTime));
             ShowMoment moment = renderer.RenderAt(Operator.ShowTime, image, Operator.ManualControl ? manualLook : null);
-            dome.Present(image.Pixels);
+            dome.Present(image.ReadOnlyPixels);
             console.Show(Operator, moment, image, SoundStatus);
         }
     }

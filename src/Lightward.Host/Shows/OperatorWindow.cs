@@ -69,7 +69,7 @@ public sealed class OperatorWindow : IOperatorConsole, IDisposable
     public void Show(ShowOperator show, ShowMoment moment, RgbaImage dome, string soundStatus)
     {
         _screen.Draw(show, moment, dome, soundStatus);
-        _window.Present(_screen.Image.Pixels);
+        _window.Present(_screen.Image.ReadOnlyPixels);
     }
 
     public void Dispose()

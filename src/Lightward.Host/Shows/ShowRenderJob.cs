@@ -134,7 +134,7 @@ public sealed class ShowRenderJob
         for (int frame = 1; frame <= FrameCount; frame++)
         {
             RgbaImage image = PngWriter.Read(Layout.FramePath(frame));
-            flashes.AddFrame(image.Pixels, image.Width, image.Height);
+            flashes.AddFrame(image.ReadOnlyPixels, image.Width, image.Height);
             double time = (double)(frame - 1) * _settings.FrameRate.Denominator / _settings.FrameRate.Numerator;
             rotation.Add(time, _timeline.At(time).CameraOrientation);
             frameChecked?.Invoke(frame);
