@@ -28,8 +28,16 @@ public sealed class StarSplatter
     /// <summary>Exposed flux above which a single bilinear sample would look like a hard square: use a kernel.</summary>
     public const float BilinearLimit = 1;
 
-    /// <summary>Stars per chunk of the projection loop: a fixed split, so chunk boundaries do not depend on the thread count.</summary>
-    private const int ChunkSize = 4096;
+    /// <summary>
+    /// The star passes (projection, footprints, binning) split the stars into about this many chunks, so that both
+    /// cores end each pass together (five 4096-star chunks left one core a chunk behind); the split depends on the star
+    /// count alone, never on the thread count, and every tile still lists its stars in catalogue order.
+    /// </summary>
+    private const int ChunksPerPass = 16;
+    private const int MinChunkSize = 1024, MaxChunkSize = 8192;
+
+    /// <summary>Stars per chunk this frame: a multiple of the vector width.</summary>
+    private int _chunkSize = MinChunkSize;
 
     private const byte Hidden = byte.MaxValue, Bilinear = 0;
 
@@ -96,7 +104,8 @@ public sealed class StarSplatter
             _footprint = new byte[stars.Count];
             _firstTile = new int[stars.Count]; _tileSpan = new byte[stars.Count];
         }
-        int chunks = (stars.Count + ChunkSize - 1) / ChunkSize;
+        _chunkSize = Math.Clamp((stars.Count / ChunksPerPass + Vector<float>.Count) & -Vector<float>.Count, MinChunkSize, MaxChunkSize);
+        int chunks = (stars.Count + _chunkSize - 1) / _chunkSize;
         if (_chunkLevels.Length < chunks) _chunkLevels = [.. _chunkLevels, .. Enumerable.Range(0, chunks - _chunkLevels.Length).Select(_ => new LevelHistogram())];
         Parallel.For(0, chunks, parallel, _projectChunk);
         StarLevels.Clear();
@@ -220,7 +229,7 @@ public sealed class StarSplatter
 
     private void ProjectChunk(int chunk)
     {
-        int start = chunk * ChunkSize, count = Math.Min(ChunkSize, _stars.Count - start);
+        int start = chunk * _chunkSize, count = Math.Min(_chunkSize, _stars.Count - start);
         Span<float> cameraX = stackalloc float[count], cameraY = stackalloc float[count], cameraZ = stackalloc float[count];
         _shipToCamera.Apply(_stars.X.AsSpan(start, count), _stars.Y.AsSpan(start, count), _stars.Z.AsSpan(start, count), cameraX, cameraY, cameraZ);
         _projection!.ProjectDirections(cameraX, cameraY, cameraZ, _x.AsSpan(start, count), _y.AsSpan(start, count), _radianceScale.AsSpan(start, count));
@@ -270,7 +279,7 @@ public sealed class StarSplatter
     /// </summary>
     private void AssignFootprints(int chunk)
     {
-        int start = chunk * ChunkSize, end = Math.Min(_stars.Count, start + ChunkSize), cursors = chunk * _tileCount;
+        int start = chunk * _chunkSize, end = Math.Min(_stars.Count, start + _chunkSize), cursors = chunk * _tileCount;
         Vector<float> exposureScale = new(_exposureScale), bilinearLimit = new(BilinearLimit), half = new(0.5f);
         Vector<int> lastRow = new(_height - 1), lastColumn = new(_width - 1), tilesPerBand = new(_tilesPerBand);
         int i = start;
@@ -367,7 +376,7 @@ public sealed class StarSplatter
     private void FillTiles(int chunk)
     {
         float[] red = _stars.R, green = _stars.G, blue = _stars.B;
-        int start = chunk * ChunkSize, end = Math.Min(_stars.Count, start + ChunkSize), cursors = chunk * _tileCount;
+        int start = chunk * _chunkSize, end = Math.Min(_stars.Count, start + _chunkSize), cursors = chunk * _tileCount;
         for (int i = start; i < end; i++)
         {
             if (_footprint[i] == Hidden) continue;
@@ -389,7 +398,7 @@ public sealed class StarSplatter
         _bandCount = (height + BandHeight - 1) / BandHeight;
         _tilesPerBand = (width + TileWidth - 1) / TileWidth;
         _tileCount = _bandCount * _tilesPerBand;
-        int chunks = (_stars.Count + ChunkSize - 1) / ChunkSize;
+        int chunks = (_stars.Count + _chunkSize - 1) / _chunkSize;
         if (_chunkTileCursor.Length < chunks * _tileCount) _chunkTileCursor = new int[chunks * _tileCount];
         Array.Clear(_chunkTileCursor, 0, chunks * _tileCount);
         Parallel.For(0, chunks, parallel, _assignChunk);
