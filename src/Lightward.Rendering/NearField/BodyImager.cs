@@ -22,7 +22,10 @@ public readonly record struct BodyAppearance(Vec3 Direction, double Doppler, dou
 /// bodies in uniform motion; for accelerating or turning bodies it neglects the change of the body's velocity
 /// during the light-crossing time of the body itself (terms of order |a|·R and |ω|·R, R the body's size).
 /// Front faces become <see cref="SkyTriangle"/>s, split until the curved image of every side stays within half a
-/// pixel of the drawn arc.
+/// pixel of the drawn arc. A frame's work comes in steps, each split into fixed chunks of faces or points that may
+/// run side by side (<see cref="Begin"/>, <see cref="FindFrontFaces"/>, <see cref="SeePoints"/>,
+/// <see cref="Appearance"/>, <see cref="AppendFaces"/>); every chunk writes only its own entries, so the result
+/// never depends on scheduling.
 /// </summary>
 public sealed class BodyImager
 {
@@ -33,32 +36,40 @@ public sealed class BodyImager
     private static readonly double LongestChordSquared = 4 * Math.Pow(Math.Sin(LongestSide / 2), 2);
     /// <summary>A Doppler factor varying by more than this ratio across a triangle splits it, so the colour gradient stays smooth.</summary>
     private const double DopplerSpread = 1.1;
+    /// <summary>Faces per chunk of <see cref="FindFrontFaces"/> and <see cref="AppendFaces"/>.</summary>
+    private const int FacesPerChunk = 256;
+    /// <summary>Vertices or edges per chunk of <see cref="SeePoints"/>.</summary>
+    private const int PointsPerChunk = 1024;
 
     private readonly TriangleMesh _mesh;
     private readonly int[] _neighbours;
     /// <summary>Per triangle side (A→B, B→C, C→A), the index of the mesh edge it lies on; shared sides share one.</summary>
     private readonly int[] _sideEdges;
-    /// <summary>Per mesh edge, how its midpoint is seen this frame (looked at once, for whichever face needs it first).</summary>
+    /// <summary>Per mesh edge, its two vertices.</summary>
+    private readonly int[] _edgeEnds;
+    /// <summary>Per mesh edge: a side of a front face this frame (only those have their middles looked at).</summary>
+    private readonly bool[] _edgeSeen;
+    /// <summary>Per mesh edge, how its midpoint is seen this frame.</summary>
     private readonly PointSight[] _edgeMiddles;
-    private readonly bool[] _edgeMiddleSeen;
     private readonly PointSight[] _sights;
     private readonly bool[] _front;
     /// <summary>Per vertex: a corner of a front face this frame (only those are looked at and shaded).</summary>
     private readonly bool[] _seen;
     private readonly Vector3[] _shades;
-    /// <summary>Marks a vertex not yet shaded this frame (no shade is negative).</summary>
-    private static readonly Vector3 UnshadedMark = new(-1);
     private RestFrameSight _sight;
     private SurfaceShader _shader;
+    /// <summary>Whether this frame's points are shaded and its sides' middles looked at, for drawing.</summary>
+    private bool _drawing;
+    private double _clockAtCentre;
 
     public BodyImager(NearFieldBody body)
     {
         Body = body;
         _mesh = body.Mesh;
         _neighbours = Neighbours(_mesh);
-        _sideEdges = SideEdges(_mesh, out int edgeCount);
-        _edgeMiddles = new PointSight[edgeCount];
-        _edgeMiddleSeen = new bool[edgeCount];
+        _sideEdges = SideEdges(_mesh, out _edgeEnds);
+        _edgeSeen = new bool[_edgeEnds.Length / 2];
+        _edgeMiddles = new PointSight[_edgeEnds.Length / 2];
         _sights = new PointSight[_mesh.Vertices.Length];
         _front = new bool[_mesh.TriangleCount];
         _seen = new bool[_mesh.Vertices.Length];
@@ -67,58 +78,113 @@ public sealed class BodyImager
 
     public NearFieldBody Body { get; }
 
+    /// <summary>Whether the last <see cref="Begin"/> found light from the body reaching the camera.</summary>
+    public bool IsSeen { get; private set; }
+
+    /// <summary>Chunks of faces this body's <see cref="FindFrontFaces"/> and <see cref="AppendFaces"/> take.</summary>
+    public int FaceChunkCount => (_front.Length + FacesPerChunk - 1) / FacesPerChunk;
+
+    private int CornerChunkCount => (_seen.Length + PointsPerChunk - 1) / PointsPerChunk;
+
+    /// <summary>Chunks of points (front faces' corners, then their sides' middles) this body's <see cref="SeePoints"/> takes.</summary>
+    public int PointChunkCount => CornerChunkCount + (_edgeSeen.Length + PointsPerChunk - 1) / PointsPerChunk;
+
     /// <summary>
     /// Solves where every vertex is seen from <paramref name="ship"/>; null when no light from the body reaches the
-    /// camera (it did not yet exist when the light would have had to leave).
+    /// camera (it did not yet exist when the light would have had to leave). The steps of a frame, one after another.
     /// </summary>
     public BodyAppearance? Look(ShipState ship, Rotation cameraToShip)
     {
+        if (!Begin(ship, cameraToShip, referencePixelSolidAngle: null)) return null;
+        for (int chunk = 0; chunk < FaceChunkCount; chunk++) FindFrontFaces(chunk);
+        for (int chunk = 0; chunk < CornerChunkCount; chunk++) SeePoints(chunk);
+        return Appearance();
+    }
+
+    /// <summary>
+    /// First step of a frame: puts the body's centre on the camera's past light cone; false (and <see cref="IsSeen"/>
+    /// false) when no light from the body reaches the camera. With <paramref name="referencePixelSolidAngle"/> the
+    /// points seen are also shaded and the sides' middles looked at, for drawing on an image with that reference pixel.
+    /// </summary>
+    public bool Begin(ShipState ship, Rotation cameraToShip, double? referencePixelSolidAngle)
+    {
         IWorldline worldline = Body.Worldline;
         LightConeEvent centre = LightCone.Retarded(ship.Position, worldline);
-        if (!centre.IsMet) return null;
-        LorentzFrame restFrame = worldline.RestFrameAtHomeTime(centre.Event.T);
-        double clockAtCentre = worldline.ProperTimeAtHomeTime(centre.Event.T);
-        _sight = RestFrameSight.Of(centre.Event, restFrame, ship, cameraToShip);
+        IsSeen = centre.IsMet;
+        if (!IsSeen) return false;
+        _clockAtCentre = worldline.ProperTimeAtHomeTime(centre.Event.T);
+        _sight = RestFrameSight.Of(centre.Event, worldline.RestFrameAtHomeTime(centre.Event.T), ship, cameraToShip);
+        if (referencePixelSolidAngle is { } solidAngle) _shader = SurfaceShader.OfLuminance(Body.Surface.Temperature, Body.Surface.Luminance, solidAngle);
+        _drawing = referencePixelSolidAngle is not null;
+        Array.Clear(_seen);
+        Array.Clear(_edgeSeen);
+        return true;
+    }
 
+    /// <summary>Decides which faces of chunk <paramref name="chunk"/> face the camera, marking their corners and sides.</summary>
+    public void FindFrontFaces(int chunk)
+    {
         Vec3[] vertices = _mesh.Vertices;
         Vec3 camera = _sight.CameraEvent.Space;
         int[] corners = _mesh.TriangleCorners;
-        Array.Clear(_seen);
-        for (int t = 0; t < _front.Length; t++)
+        for (int t = chunk * FacesPerChunk; t < Math.Min(_front.Length, (chunk + 1) * FacesPerChunk); t++)
         {
             Vec3 a = vertices[corners[3 * t]], b = vertices[corners[3 * t + 1]], c = vertices[corners[3 * t + 2]];
             // Facing is decided where the light left: the ray to the camera leaves through the outward side.
             _front[t] = Vec3.Dot(Vec3.Cross(b - a, c - a), camera - a) > 0;
-            if (_front[t]) _seen[corners[3 * t]] = _seen[corners[3 * t + 1]] = _seen[corners[3 * t + 2]] = true;
+            if (!_front[t]) continue;
+            // Faces of other chunks may mark the same corner or side: all write true, so the marks never depend on the order.
+            _seen[corners[3 * t]] = _seen[corners[3 * t + 1]] = _seen[corners[3 * t + 2]] = true;
+            _edgeSeen[_sideEdges[3 * t]] = _edgeSeen[_sideEdges[3 * t + 1]] = _edgeSeen[_sideEdges[3 * t + 2]] = true;
         }
-        // Only the front faces' corners are looked at: they hold the whole picture of a closed body, outline included.
-        for (int i = 0; i < vertices.Length; i++)
-            if (_seen[i]) _sights[i] = _sight.See(vertices[i]);
-
-        PointSight middle = _sight.See(Vec3.Zero);
-        // The widest angle from the centre's image, found as the longest chord: θ = 2 asin(chord / 2).
-        double longestChordSquared = 0;
-        for (int i = 0; i < vertices.Length; i++)
-            if (_seen[i]) longestChordSquared = Math.Max(longestChordSquared, (_sights[i].Direction - middle.Direction).LengthSquared);
-        double radius = 2 * Math.Asin(Math.Min(1, Math.Sqrt(longestChordSquared) / 2));
-        Vec3 restDirection = (-camera).NormalizedOr(Vec3.UnitZ);
-        double rotation = Vec3.AngleBetween(restDirection, Optics.Aberration.Apparent(restDirection, _sight.ShipVelocityInFrame));
-        return new BodyAppearance(middle.Direction, middle.Doppler, middle.Distance, 2 * radius, rotation, clockAtCentre + Body.ClockOffset + middle.EmissionTime);
     }
 
     /// <summary>
-    /// Appends the front faces seen by the last successful <see cref="Look"/> as sky triangles for an image with
-    /// <paramref name="pixelsPerRadian"/> (the finest scale anywhere on it) and reference pixel solid angle <paramref name="referencePixelSolidAngle"/>.
+    /// Looks at the points of chunk <paramref name="chunk"/>: front faces' corners (only those are needed: they hold the
+    /// whole picture of a closed body, outline included), shaded when drawing, then the middles of their sides.
     /// </summary>
-    public void AppendTriangles(List<SkyTriangle> output, double pixelsPerRadian, double referencePixelSolidAngle)
+    public void SeePoints(int chunk)
     {
-        _shader = SurfaceShader.OfLuminance(Body.Surface.Temperature, Body.Surface.Luminance, referencePixelSolidAngle);
-        Array.Fill(_shades, UnshadedMark);
-        Array.Clear(_edgeMiddleSeen);
+        Vec3[] vertices = _mesh.Vertices;
+        if (chunk < CornerChunkCount)
+        {
+            for (int i = chunk * PointsPerChunk; i < Math.Min(_seen.Length, (chunk + 1) * PointsPerChunk); i++)
+            {
+                if (!_seen[i]) continue;
+                _sights[i] = _sight.See(vertices[i]);
+                if (_drawing) _shades[i] = _shader.Shade(_sights[i].Doppler);
+            }
+            return;
+        }
+        chunk -= CornerChunkCount;
+        for (int edge = chunk * PointsPerChunk; edge < Math.Min(_edgeSeen.Length, (chunk + 1) * PointsPerChunk); edge++)
+            if (_edgeSeen[edge]) _edgeMiddles[edge] = _sight.See((vertices[_edgeEnds[2 * edge]] + vertices[_edgeEnds[2 * edge + 1]]) / 2);
+    }
+
+    /// <summary>How the body looks, once its front faces' corners are seen.</summary>
+    public BodyAppearance Appearance()
+    {
+        PointSight middle = _sight.See(Vec3.Zero);
+        // The widest angle from the centre's image, found as the longest chord: θ = 2 asin(chord / 2).
+        double longestChordSquared = 0;
+        for (int i = 0; i < _seen.Length; i++)
+            if (_seen[i]) longestChordSquared = Math.Max(longestChordSquared, (_sights[i].Direction - middle.Direction).LengthSquared);
+        double radius = 2 * Math.Asin(Math.Min(1, Math.Sqrt(longestChordSquared) / 2));
+        Vec3 restDirection = (-_sight.CameraEvent.Space).NormalizedOr(Vec3.UnitZ);
+        double rotation = Vec3.AngleBetween(restDirection, Optics.Aberration.Apparent(restDirection, _sight.ShipVelocityInFrame));
+        return new BodyAppearance(middle.Direction, middle.Doppler, middle.Distance, 2 * radius, rotation, _clockAtCentre + Body.ClockOffset + middle.EmissionTime);
+    }
+
+    /// <summary>
+    /// Appends the front faces of chunk <paramref name="chunk"/>, as seen by the frame's steps so far (begun for
+    /// drawing), as sky triangles for an image with <paramref name="pixelsPerRadian"/> (the finest scale anywhere on it).
+    /// </summary>
+    public void AppendFaces(int chunk, List<SkyTriangle> output, double pixelsPerRadian)
+    {
         Vec3[] vertices = _mesh.Vertices;
         int[] corners = _mesh.TriangleCorners;
         BodySurface surface = Body.Surface;
-        for (int t = 0; t < _front.Length; t++)
+        for (int t = chunk * FacesPerChunk; t < Math.Min(_front.Length, (chunk + 1) * FacesPerChunk); t++)
         {
             if (!_front[t]) continue;
             SurfaceTint tint = _mesh.TriangleTints[t];
@@ -131,8 +197,10 @@ public sealed class BodyImager
                 if (neighbour < 0 || !_front[neighbour]) outline |= (byte)(1 << side);
             }
             int ia = corners[3 * t], ib = corners[3 * t + 1], ic = corners[3 * t + 2];
-            var piece = new Piece(CornerAt(ia), CornerAt(ib), CornerAt(ic));
-            Emit(output, piece, EdgeMiddle(t, 0, piece.A, piece.B), EdgeMiddle(t, 1, piece.B, piece.C), EdgeMiddle(t, 2, piece.C, piece.A), faceTint, outline, pixelsPerRadian, 0);
+            var piece = new Piece(new Corner(vertices[ia], _sights[ia], _shades[ia]), new Corner(vertices[ib], _sights[ib], _shades[ib]),
+                new Corner(vertices[ic], _sights[ic], _shades[ic]));
+            Emit(output, piece, _edgeMiddles[_sideEdges[3 * t]], _edgeMiddles[_sideEdges[3 * t + 1]], _edgeMiddles[_sideEdges[3 * t + 2]],
+                faceTint, outline, pixelsPerRadian, 0);
         }
     }
 
@@ -140,25 +208,6 @@ public sealed class BodyImager
     private readonly record struct Corner(Vec3 Point, PointSight Seen, Vector3 Shade);
 
     private readonly record struct Piece(Corner A, Corner B, Corner C);
-
-    /// <summary>A mesh vertex as a corner; each vertex is shaded once a frame, however many faces share it.</summary>
-    private Corner CornerAt(int vertex)
-    {
-        if (_shades[vertex] == UnshadedMark) _shades[vertex] = _shader.Shade(_sights[vertex].Doppler);
-        return new Corner(_mesh.Vertices[vertex], _sights[vertex], _shades[vertex]);
-    }
-
-    /// <summary>How the midpoint of side <paramref name="side"/> of mesh triangle <paramref name="triangle"/> is seen, looked at once per edge and frame.</summary>
-    private PointSight EdgeMiddle(int triangle, int side, in Corner from, in Corner to)
-    {
-        int edge = _sideEdges[3 * triangle + side];
-        if (!_edgeMiddleSeen[edge])
-        {
-            _edgeMiddles[edge] = _sight.See((from.Point + to.Point) / 2);
-            _edgeMiddleSeen[edge] = true;
-        }
-        return _edgeMiddles[edge];
-    }
 
     /// <summary>Emits a piece, split into four while a side's image strays from its arc (its sides' middles seen as given).</summary>
     private void Emit(List<SkyTriangle> output, in Piece p, in PointSight seenAB, in PointSight seenBC, in PointSight seenCA, Vector3 faceTint, byte outline, double pixelsPerRadian, int depth)
@@ -211,20 +260,26 @@ public sealed class BodyImager
 
     private static Vector3 ToVector3(Vec3 v) => new((float)v.X, (float)v.Y, (float)v.Z);
 
-    /// <summary>Numbers the mesh's edges (a side shared by two faces is one edge) and gives each triangle side its edge.</summary>
-    private static int[] SideEdges(TriangleMesh mesh, out int edgeCount)
+    /// <summary>Numbers the mesh's edges (a side shared by two faces is one edge), gives each triangle side its edge and each edge its two vertices.</summary>
+    private static int[] SideEdges(TriangleMesh mesh, out int[] edgeEnds)
     {
         int[] corners = mesh.TriangleCorners;
         var edgeOf = new Dictionary<(int, int), int>(corners.Length);
         var sideEdges = new int[corners.Length];
+        var ends = new List<int>(corners.Length);
         for (int k = 0; k < corners.Length; k++)
         {
             int from = corners[k], to = corners[k - k % 3 + (k % 3 + 1) % 3];
             (int, int) key = from < to ? (from, to) : (to, from);
-            if (!edgeOf.TryGetValue(key, out int edge)) edgeOf.Add(key, edge = edgeOf.Count);
+            if (!edgeOf.TryGetValue(key, out int edge))
+            {
+                edgeOf.Add(key, edge = edgeOf.Count);
+                ends.Add(from);
+                ends.Add(to);
+            }
             sideEdges[k] = edge;
         }
-        edgeCount = edgeOf.Count;
+        edgeEnds = ends.ToArray();
         return sideEdges;
     }
 

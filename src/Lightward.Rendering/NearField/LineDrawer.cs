@@ -29,7 +29,8 @@ public sealed class LineDrawer
 
     /// <summary>
     /// Sorts <paramref name="segments"/> into row bands, to be drawn behind or in front of the surfaces in
-    /// <paramref name="surfaces"/> (already drawn); they are drawn from there until the next call.
+    /// <paramref name="surfaces"/>; they are drawn from there until the next call. Only the size of the surface layer
+    /// is read here, so the surfaces may still be being drawn: what they hold is read when the lines are drawn.
     /// </summary>
     public void SortIntoBands(List<PixelSegment> segments, SkyRasterizer surfaces)
     {
@@ -42,7 +43,7 @@ public sealed class LineDrawer
         foreach (PixelSegment segment in segments)
         {
             float low = MathF.Min(segment.Y0, segment.Y1) - Reach, high = MathF.Max(segment.Y0, segment.Y1) + Reach;
-            if (!(high >= 0 && low < height) || !Stroke.TryPrepare(segment, surfaces, out Stroke stroke)) continue;
+            if (!(high >= 0 && low < height) || !Stroke.TryPrepare(segment, surfaces.Width, surfaces.Height, out Stroke stroke)) continue;
             int first = Math.Max(0, (int)low / BandRows), last = Math.Min(bandCount - 1, (int)high / BandRows);
             for (int band = first; band <= last; band++) _bands[band].Add(_strokes.Count);
             _strokes.Add(stroke);
@@ -62,13 +63,15 @@ public sealed class LineDrawer
         for (int band = rows.FirstRow / BandRows; band * BandRows < rows.EndRow; band++)
         {
             int top = Math.Max(rows.FirstRow, band * BandRows), bottom = Math.Min(rows.EndRow, (band + 1) * BandRows);
+            // Most bands hold no surface at all: their segments need not be tested one by one.
+            bool bandMeetsSurface = surfaces.MayHaveSurfaceIn(0, top, surfaces.Width - 1, bottom - 1, Reach);
             foreach (int k in _bands[band])
             {
                 ref readonly Stroke stroke = ref strokes[k];
                 // Most segments pass no surface and cross only pixels that show sky: those skip the per-pixel depth and
                 // sky tests, which keeps a pixel's memory traffic to its three colour planes.
                 var line = new Line(stroke, colourScale, new Pixels(red, green, blue, touched, skyX, depth, rows),
-                    stroke.MayMeetSurface(surfaces, top, bottom), surfaces.Directions.HasBlankPixels);
+                    bandMeetsSurface && stroke.MayMeetSurface(surfaces, top, bottom), surfaces.Directions.HasBlankPixels);
                 if (line.TestsPixels) line.Draw<EveryPixelTested>(top, bottom);
                 else line.Draw<NoPixelTested>(top, bottom);
             }
@@ -83,9 +86,9 @@ public sealed class LineDrawer
     /// perpendicular distance.
     /// </summary>
     private readonly record struct Stroke(PixelSegment Segment, bool AlongX, int First, int Last, float Start, float InverseSpan,
-        float MinorStart, float MinorChange, float Perpendicular, bool NearSurface)
+        float MinorStart, float MinorChange, float Perpendicular)
     {
-        public static bool TryPrepare(in PixelSegment s, SkyRasterizer surfaces, out Stroke stroke)
+        public static bool TryPrepare(in PixelSegment s, int width, int height, out Stroke stroke)
         {
             stroke = default;
             float dx = s.X1 - s.X0, dy = s.Y1 - s.Y0;
@@ -94,18 +97,17 @@ public sealed class LineDrawer
             bool alongX = MathF.Abs(dx) >= MathF.Abs(dy);
             float start = alongX ? s.X0 : s.Y0, end = alongX ? s.X1 : s.Y1;
             float low = MathF.Min(start, end), high = MathF.Max(start, end);
-            int majorLimit = alongX ? surfaces.Width : surfaces.Height;
+            int majorLimit = alongX ? width : height;
             int first = (int)Math.Max(0, MathF.Ceiling(low - 0.5f)), last = (int)Math.Min(majorLimit - 1, MathF.Ceiling(high - 0.5f) - 1);
             if (first > last) return false;
             stroke = new Stroke(s, alongX, first, last, start, 1 / (end - start), alongX ? s.Y0 : s.X0, alongX ? dy : dx,
-                (alongX ? MathF.Abs(dx) : MathF.Abs(dy)) / length, surfaces.MayHaveSurfaceIn(s.X0, s.Y0, s.X1, s.Y1, Reach));
+                (alongX ? MathF.Abs(dx) : MathF.Abs(dy)) / length);
             return true;
         }
 
         /// <summary>False when no surface was drawn within reach of the part of the segment that rows [<paramref name="top"/>, <paramref name="bottom"/>) show.</summary>
         public bool MayMeetSurface(SkyRasterizer surfaces, int top, int bottom)
         {
-            if (!NearSurface) return false;
             PixelSegment s = Segment;
             float dy = s.Y1 - s.Y0, x0 = s.X0, x1 = s.X1;
             if (dy != 0)
@@ -114,7 +116,9 @@ public sealed class LineDrawer
                 x0 = s.X0 + t0 * (s.X1 - s.X0);
                 x1 = s.X0 + t1 * (s.X1 - s.X0);
             }
-            return surfaces.MayHaveSurfaceIn(x0, top, x1, bottom - 1, Reach);
+            // The rows the segment itself reaches within the band: its pixels lie there.
+            float y0 = MathF.Max(top, MathF.Min(s.Y0, s.Y1) - Reach), y1 = MathF.Min(bottom - 1, MathF.Max(s.Y0, s.Y1) + Reach);
+            return surfaces.MayHaveSurfaceIn(x0, y0, x1, y1, Reach);
         }
     }
 

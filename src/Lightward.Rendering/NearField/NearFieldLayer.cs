@@ -1,3 +1,4 @@
+using System.Runtime.InteropServices;
 using Lightward.Rendering.Projections;
 using Lightward.Spacetime;
 
@@ -9,10 +10,10 @@ public readonly record struct BodyView(NearFieldBody Body, BodyAppearance? Appea
 /// <summary>
 /// The near field as a frame layer: bodies seen at their retarded positions, drawn as opaque surfaces into buffers of
 /// their own with their own depth buffer (and metered), then laid over the stars, and the grid of space drawn in front
-/// of or behind them at a brightness relative to the display. The bodies and the grid are worked out side by side;
-/// both are laid over the frame one row band at a time, as the renderer hands the bands out. Keeps its buffers
-/// between frames (they are rebuilt only when the projection changes); the surfaces stay in them from one frame's
-/// rasterising to the next.
+/// of or behind them at a brightness relative to the display. The bodies and then the grid are worked out in steps
+/// that each spread over the threads; both are laid over the frame one row band at a time, as the renderer hands the
+/// bands out. Keeps its buffers between frames (they are rebuilt only when the projection changes); the surfaces stay
+/// in them from one frame's rasterising to the next.
 /// </summary>
 public sealed class NearFieldLayer : IFrameLayer
 {
@@ -23,10 +24,12 @@ public sealed class NearFieldLayer : IFrameLayer
     private const double PixelScaleMargin = 1.5;
 
     private readonly BodyImager[] _imagers;
+    /// <summary>Every body's chunks of faces, in body order, and the triangles each chunk gave this frame.</summary>
+    private readonly (int Body, int Chunk)[] _faceChunks;
+    private readonly List<SkyTriangle>[] _chunkTriangles;
+    /// <summary>Every body's chunks of points, in body order.</summary>
+    private readonly (int Body, int Chunk)[] _pointChunks;
     private readonly GridImager _gridImager = new();
-    /// <summary>The bodies' triangles joined in body order (grown as needed, reused).</summary>
-    private SkyTriangle[] _triangles = [];
-    private readonly List<SkyTriangle>[] _bodyTriangles;
     private readonly List<PixelSegment> _segments = [];
     private readonly LineDrawer _lineDrawer = new();
     private readonly BodyView[] _views;
@@ -36,7 +39,9 @@ public sealed class NearFieldLayer : IFrameLayer
     {
         _imagers = bodies.Select(b => new BodyImager(b)).ToArray();
         _views = _imagers.Select(i => new BodyView(i.Body, null)).ToArray();
-        _bodyTriangles = _imagers.Select(_ => new List<SkyTriangle>()).ToArray();
+        _faceChunks = _imagers.SelectMany((imager, body) => Enumerable.Range(0, imager.FaceChunkCount).Select(chunk => (body, chunk))).ToArray();
+        _chunkTriangles = _faceChunks.Select(_ => new List<SkyTriangle>()).ToArray();
+        _pointChunks = _imagers.SelectMany((imager, body) => Enumerable.Range(0, imager.PointChunkCount).Select(chunk => (body, chunk))).ToArray();
         Grid = grid;
     }
 
@@ -85,41 +90,56 @@ public sealed class NearFieldLayer : IFrameLayer
     }
 
     /// <summary>
-    /// Bodies → sky triangles → the surface layer's own buffers, and beside them (the two share nothing) the grid's
-    /// lines → pixel segments; then the segments are sorted into row bands, knowing where the surfaces are.
+    /// Bodies → sky triangles → the surface layer's own buffers, then the grid's lines → pixel segments sorted into
+    /// row bands; the lines learn where the surfaces are when they are drawn. One after the other, each spreading its
+    /// own work over the threads: run side by side, each one's parallel loops ended up waiting on the other's.
     /// </summary>
     private void Rasterize(Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
     {
         SkyRasterizer rasterizer = RasterizerFor(projection);
+        DrawBodies(rasterizer, ship, cameraToShip, parallel);
+        TraceGrid(rasterizer, ship, cameraToShip, parallel);
+    }
+
+    private void TraceGrid(SkyRasterizer rasterizer, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
+    {
         _segments.Clear();
-        Parallel.Invoke(parallel,
-            () => DrawBodies(rasterizer, ship, cameraToShip, parallel),
-            () => { if (Grid is not null) _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, projection, _segments, parallel); });
+        if (Grid is not null) _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, rasterizer.Projection, _segments, parallel);
         _lineDrawer.SortIntoBands(_segments, rasterizer);
     }
 
-    /// <summary>Looks at every body, joins their front faces as sky triangles in body order and draws them into the surface layer.</summary>
+    /// <summary>
+    /// Looks at every body and draws their front faces as sky triangles into the surface layer, in body order. Each
+    /// step is split into fixed chunks of every body's faces or points, worked on side by side, so that the threads
+    /// stay busy however many bodies there are; each face chunk's triangles are prepared for the layer as they come.
+    /// </summary>
     private void DrawBodies(SkyRasterizer rasterizer, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
     {
         Projection projection = rasterizer.Projection;
         double pixelsPerRadian = PixelScaleMargin / Math.Sqrt(projection.ReferencePixelSolidAngle);
-        // Each body is imaged by one thread into its own list; the lists are joined in body order.
-        Parallel.For(0, _imagers.Length, parallel, i =>
+        foreach (BodyImager imager in _imagers) imager.Begin(ship, cameraToShip, projection.ReferencePixelSolidAngle);
+        Parallel.For(0, _faceChunks.Length, parallel, k =>
         {
-            _bodyTriangles[i].Clear();
-            _views[i] = new BodyView(_imagers[i].Body, _imagers[i].Look(ship, cameraToShip));
-            if (_views[i].Appearance is not null)
-                _imagers[i].AppendTriangles(_bodyTriangles[i], pixelsPerRadian, projection.ReferencePixelSolidAngle);
+            (int body, int chunk) = _faceChunks[k];
+            if (_imagers[body].IsSeen) _imagers[body].FindFrontFaces(chunk);
         });
-        int count = _bodyTriangles.Sum(triangles => triangles.Count), joined = 0;
-        if (_triangles.Length < count) _triangles = new SkyTriangle[Math.Max(count, 2 * _triangles.Length)];
-        foreach (List<SkyTriangle> triangles in _bodyTriangles)
+        Parallel.For(0, _pointChunks.Length, parallel, k =>
         {
-            triangles.CopyTo(_triangles, joined);
-            joined += triangles.Count;
-        }
+            (int body, int chunk) = _pointChunks[k];
+            if (_imagers[body].IsSeen) _imagers[body].SeePoints(chunk);
+        });
+        for (int i = 0; i < _imagers.Length; i++) _views[i] = new BodyView(_imagers[i].Body, _imagers[i].IsSeen ? _imagers[i].Appearance() : null);
         rasterizer.Clear(parallel);
-        rasterizer.Draw(_triangles.AsMemory(0, count), parallel);
+        rasterizer.BeginParts(_faceChunks.Length);
+        Parallel.For(0, _faceChunks.Length, parallel, k =>
+        {
+            (int body, int chunk) = _faceChunks[k];
+            List<SkyTriangle> triangles = _chunkTriangles[k];
+            triangles.Clear();
+            if (_imagers[body].IsSeen) _imagers[body].AppendFaces(chunk, triangles, pixelsPerRadian);
+            rasterizer.PreparePart(k, CollectionsMarshal.AsSpan(triangles));
+        });
+        rasterizer.FillParts(parallel);
     }
 
     /// <summary>Surfaces over the band, then the grid's lines (depth-tested against the surfaces), brought to the exposure.</summary>

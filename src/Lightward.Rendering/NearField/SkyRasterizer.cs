@@ -1,5 +1,6 @@
 using System.Numerics;
 using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using System.Runtime.Intrinsics;
 using Lightward.Rendering.Projections;
 using Lightward.Spacetime;
@@ -12,10 +13,10 @@ namespace Lightward.Rendering.NearField;
 /// great-circle side tests on the cached <see cref="PixelDirections"/>), so the equirectangular wrap, a dome's rim and
 /// the region behind a perspective camera need no special cases: only the pixel box to search is found per
 /// projection, by subdividing triangles whose box is not trustworthy. Outline sides get a half-pixel ramp on either
-/// side (anti-aliasing); the nearest emission event wins each pixel. Triangles are prepared in fixed chunks in
-/// parallel and kept in their given order; row bands are then filled in parallel, each by one thread over the
-/// triangles in that order, eight neighbouring pixels at a time, so the result never depends on scheduling. Each band
-/// counts its surfaces' brightness for the exposure meter as it finishes. The layer remembers which
+/// side (anti-aliasing); the nearest emission event wins each pixel. Triangles come in parts, prepared side by side,
+/// each sorted into row bands; the bands are then filled in parallel, each by one thread over the triangles in part
+/// order, eight neighbouring pixels at a time, so the result never depends on scheduling. Each band counts its
+/// surfaces' brightness for the exposure meter as it finishes. The layer remembers which
 /// <see cref="TileSize"/>-pixel tiles it drew into, and composites and clears only those.
 /// </summary>
 public sealed class SkyRasterizer
@@ -25,8 +26,6 @@ public sealed class SkyRasterizer
     /// <summary>Side of the square tiles in which drawn regions are tracked, pixels.</summary>
     public const int TileSize = 16;
     private const int MaxSubdivisionDepth = 10;
-    /// <summary>Triangles prepared per work item: a fixed split, each item into its own list, joined in order.</summary>
-    private const int TrianglesPerChunk = 256;
     /// <summary>Triangles below this angular size are dropped when their corners cannot be placed (behind a flat screen) or all lie beyond one image edge, rad.</summary>
     private const double OffImageDropAngle = 1.0;
     /// <summary>
@@ -47,20 +46,18 @@ public sealed class SkyRasterizer
     private readonly int _tileColumns, _tileRows;
     private readonly double _smallBox;
     private readonly bool[] _dirtyTiles;
+    /// <summary>Per tile row, how many drawn tiles lie left of each tile column (a row has one entry more than columns), kept from <see cref="FillParts"/> to <see cref="Clear"/>.</summary>
+    private readonly int[] _drawnTilesBefore;
     /// <summary>The tile columns and rows that hold every drawn tile (empty when first &gt; last).</summary>
     private (int FirstColumn, int LastColumn, int FirstRow, int LastRow) _drawnTiles = (0, -1, 0, -1);
-    private PreparedTriangle[] _prepared = new PreparedTriangle[1024];
-    private int _preparedCount;
-    /// <summary>Per work item of the preparation, its triangles prepared, in order.</summary>
-    private readonly List<List<PreparedTriangle>> _chunks = [];
+    /// <summary>Per part of the triangles, those prepared (see <see cref="BeginParts"/>).</summary>
+    private readonly List<PreparedPart> _parts = [];
+    private int _partCount;
+    private readonly int _bandCount;
     /// <summary>Per row band, the brightness of its surfaces, counted as the band is filled (see <see cref="AddSurfaceLevels"/>).</summary>
     private readonly LevelHistogram[] _bandLevels;
     private bool _filled;
-    /// <summary>Per row band, the prepared triangles reaching into it, in drawing order.</summary>
-    private readonly List<int>[] _bandTriangles;
     private readonly Action<int> _fillBand;
-    private ReadOnlyMemory<SkyTriangle> _toPrepare;
-    private readonly Action<int> _prepareChunk;
 
     public SkyRasterizer(PixelDirections directions)
     {
@@ -70,12 +67,11 @@ public sealed class SkyRasterizer
         _tileColumns = (Width + TileSize - 1) / TileSize;
         _tileRows = (Height + TileSize - 1) / TileSize;
         _dirtyTiles = new bool[_tileColumns * _tileRows];
+        _drawnTilesBefore = new int[(_tileColumns + 1) * _tileRows];
         _smallBox = Math.Min(SmallBox, Math.Min(Width, Height) / 4.0);
-        _bandTriangles = new List<int>[(Height + BandRows - 1) / BandRows];
-        for (int band = 0; band < _bandTriangles.Length; band++) _bandTriangles[band] = [];
-        _bandLevels = _bandTriangles.Select(_ => new LevelHistogram()).ToArray();
+        _bandCount = (Height + BandRows - 1) / BandRows;
+        _bandLevels = Enumerable.Range(0, _bandCount).Select(_ => new LevelHistogram()).ToArray();
         _fillBand = FillBand;
-        _prepareChunk = PrepareChunk;
     }
 
     public Projection Projection => _directions.Projection;
@@ -95,9 +91,12 @@ public sealed class SkyRasterizer
         int lastTile = Math.Min(_drawnTiles.LastColumn, TileOf(MathF.Max(x0, x1) + reach, Width));
         int firstRow = Math.Max(_drawnTiles.FirstRow, TileOf(MathF.Min(y0, y1) - reach, Height));
         int lastRow = Math.Min(_drawnTiles.LastRow, TileOf(MathF.Max(y0, y1) + reach, Height));
+        if (firstTile > lastTile) return false;
         for (int tileRow = firstRow; tileRow <= lastRow; tileRow++)
-            for (int tile = firstTile; tile <= lastTile; tile++)
-                if (_dirtyTiles[tileRow * _tileColumns + tile]) return true;
+        {
+            int rowStart = tileRow * (_tileColumns + 1);
+            if (_drawnTilesBefore[rowStart + lastTile + 1] > _drawnTilesBefore[rowStart + firstTile]) return true;
+        }
         return false;
     }
 
@@ -108,22 +107,33 @@ public sealed class SkyRasterizer
     /// <summary>The cone of directions the image shows.</summary>
     public ViewCap View => _view;
 
-    /// <summary>Rasterises <paramref name="triangles"/> (front-facing; winding is taken from the directions) into the layer.</summary>
-    public void Draw(ReadOnlyMemory<SkyTriangle> triangles, ParallelOptions parallel)
+    /// <summary>
+    /// Starts drawing <paramref name="partCount"/> parts of triangles into the (cleared) layer: each part is prepared
+    /// by <see cref="PreparePart"/>, side by side in any order, and <see cref="FillParts"/> then draws them all, in
+    /// part order.
+    /// </summary>
+    public void BeginParts(int partCount)
     {
-        _preparedCount = 0;
+        _partCount = partCount;
+        while (_parts.Count < partCount) _parts.Add(new PreparedPart(_bandCount));
+    }
+
+    /// <summary>Prepares part <paramref name="part"/>: <paramref name="triangles"/> (front-facing; winding is taken from the directions), in order.</summary>
+    public void PreparePart(int part, ReadOnlySpan<SkyTriangle> triangles)
+    {
+        PreparedPart output = _parts[part];
+        output.Triangles.Clear();
+        foreach (ref readonly SkyTriangle triangle in triangles) Prepare(triangle, 0, output.Triangles);
+        output.SortIntoBands();
+    }
+
+    /// <summary>Rasterises the prepared parts into the layer, in part order.</summary>
+    public void FillParts(ParallelOptions parallel)
+    {
         _filled = false;
-        foreach (List<int> band in _bandTriangles) band.Clear();
-        int chunkCount = (triangles.Length + TrianglesPerChunk - 1) / TrianglesPerChunk;
-        while (_chunks.Count < chunkCount) _chunks.Add([]);
-        _toPrepare = triangles;
-        Parallel.For(0, chunkCount, parallel, _prepareChunk);
-        _toPrepare = default;
-        for (int chunk = 0; chunk < chunkCount; chunk++)
-            foreach (PreparedTriangle prepared in _chunks[chunk]) Keep(prepared);
         _drawnTiles = DrawnTiles();
-        if (_preparedCount == 0) return;
-        Parallel.For(0, _bandTriangles.Length, parallel, _fillBand);
+        if (_drawnTiles.FirstRow > _drawnTiles.LastRow) return;
+        Parallel.For(0, _bandCount, parallel, _fillBand);
         _filled = true;
     }
 
@@ -161,7 +171,7 @@ public sealed class SkyRasterizer
         _drawnTiles = (0, -1, 0, -1);
     }
 
-    /// <summary>The smallest range of tile columns and rows holding every drawn tile.</summary>
+    /// <summary>The smallest range of tile columns and rows holding every drawn tile; counts the drawn tiles before each column as it goes.</summary>
     private (int FirstColumn, int LastColumn, int FirstRow, int LastRow) DrawnTiles()
     {
         (int firstColumn, int lastColumn, int firstRow, int lastRow) = (_tileColumns, -1, _tileRows, -1);
@@ -169,7 +179,13 @@ public sealed class SkyRasterizer
         {
             ReadOnlySpan<bool> row = _dirtyTiles.AsSpan(tileRow * _tileColumns, _tileColumns);
             int first = row.IndexOf(true);
-            if (first < 0) continue;
+            Span<int> before = _drawnTilesBefore.AsSpan(tileRow * (_tileColumns + 1), _tileColumns + 1);
+            if (first < 0)
+            {
+                before.Clear();
+                continue;
+            }
+            for (int tile = 0; tile < _tileColumns; tile++) before[tile + 1] = before[tile] + (row[tile] ? 1 : 0);
             (firstColumn, lastColumn) = (Math.Min(firstColumn, first), Math.Max(lastColumn, row.LastIndexOf(true)));
             (firstRow, lastRow) = (Math.Min(firstRow, tileRow), tileRow);
         }
@@ -245,11 +261,11 @@ public sealed class SkyRasterizer
     {
         Vec3 a = ToVec3(t.DirectionA), b = ToVec3(t.DirectionB), c = ToVec3(t.DirectionC);
         // The angle subtended by the longest chord.
-        double longestChord = Math.Sqrt(Math.Max((a - b).LengthSquared, Math.Max((b - c).LengthSquared, (c - a).LengthSquared)));
-        double diameter = 2 * Math.Asin(Math.Min(1, longestChord / 2));
+        double halfChord = Math.Min(1, Math.Sqrt(Math.Max((a - b).LengthSquared, Math.Max((b - c).LengthSquared, (c - a).LengthSquared))) / 2);
         Vec3 centre = (a + b + c).NormalizedOr(a);
         // Every point of the triangle lies within its diameter of the centroid direction.
-        if (_view.Misses(centre, diameter)) return;
+        if (_view.Misses(centre, halfChord)) return;
+        double diameter = 2 * Math.Asin(halfChord);
         Projection projection = Projection;
         bool onA = ImagePlacement.TryPlace(projection, a, out double ax, out double ay);
         bool onB = ImagePlacement.TryPlace(projection, b, out double bx, out double by);
@@ -344,25 +360,33 @@ public sealed class SkyRasterizer
         int x1 = (int)Math.Min(Width - 1, Math.Floor(maxX - 0.5)), y1 = (int)Math.Min(Height - 1, Math.Floor(maxY - 0.5));
         if (x0 > x1 || y0 > y1) return;
         prepared.AddBox(x0, y0, x1, y1);
-        // Chunks prepared side by side may mark the same tile: they all write true, so the marks never depend on the order.
+        // Parts prepared side by side may mark the same tile: they all write true, so the marks never depend on the order.
         for (int tileRow = y0 / TileSize; tileRow <= y1 / TileSize; tileRow++)
             for (int tile = x0 / TileSize; tile <= x1 / TileSize; tile++) _dirtyTiles[tileRow * _tileColumns + tile] = true;
     }
 
-    private void PrepareChunk(int chunk)
+    /// <summary>One part's prepared triangles, in order, with for each row band the (ordered) indices of those reaching into it.</summary>
+    private sealed class PreparedPart(int bandCount)
     {
-        List<PreparedTriangle> output = _chunks[chunk];
-        output.Clear();
-        ReadOnlySpan<SkyTriangle> triangles = _toPrepare.Span;
-        for (int k = chunk * TrianglesPerChunk; k < Math.Min(triangles.Length, (chunk + 1) * TrianglesPerChunk); k++) Prepare(triangles[k], 0, output);
-    }
+        public readonly List<PreparedTriangle> Triangles = [];
+        /// <summary>Where each band's indices start in <see cref="Order"/>; band b's run ends where band b + 1's starts.</summary>
+        public readonly int[] BandStart = new int[bandCount + 1];
+        public int[] Order = [];
 
-    /// <summary>Adds a prepared triangle to the drawing order and to the lists of the bands it reaches.</summary>
-    private void Keep(in PreparedTriangle prepared)
-    {
-        if (_preparedCount == _prepared.Length) Array.Resize(ref _prepared, 2 * _prepared.Length);
-        for (int band = prepared.MinY / BandRows; band <= prepared.MaxY / BandRows; band++) _bandTriangles[band].Add(_preparedCount);
-        _prepared[_preparedCount++] = prepared;
+        /// <summary>Lists each triangle under every band it reaches, keeping the order within each band (a counting sort).</summary>
+        public void SortIntoBands()
+        {
+            Array.Clear(BandStart);
+            ReadOnlySpan<PreparedTriangle> triangles = CollectionsMarshal.AsSpan(Triangles);
+            foreach (ref readonly PreparedTriangle t in triangles)
+                for (int band = t.MinY / BandRows; band <= t.MaxY / BandRows; band++) BandStart[band + 1]++;
+            for (int band = 1; band < BandStart.Length; band++) BandStart[band] += BandStart[band - 1];
+            if (Order.Length < BandStart[^1]) Order = new int[Math.Max(BandStart[^1], 2 * Order.Length)];
+            Span<int> next = stackalloc int[BandStart.Length];
+            BandStart.CopyTo(next);
+            for (int k = 0; k < triangles.Length; k++)
+                for (int band = triangles[k].MinY / BandRows; band <= triangles[k].MaxY / BandRows; band++) Order[next[band]++] = k;
+        }
     }
 
     private unsafe void FillBand(int band)
@@ -372,13 +396,18 @@ public sealed class SkyRasterizer
         fixed (float* red = _pixels.Red, green = _pixels.Green, blue = _pixels.Blue, alpha = _pixels.Alpha, depth = _pixels.Depth)
         {
             var pixels = new PixelPointers(x, y, z, red, green, blue, alpha, depth);
-            foreach (int k in _bandTriangles[band])
+            for (int part = 0; part < _partCount; part++)
             {
-                ref readonly PreparedTriangle t = ref _prepared[k];
-                for (int boxIndex = 0; boxIndex < t.BoxCount; boxIndex++)
+                PreparedPart prepared = _parts[part];
+                ReadOnlySpan<PreparedTriangle> triangles = CollectionsMarshal.AsSpan(prepared.Triangles);
+                for (int j = prepared.BandStart[band]; j < prepared.BandStart[band + 1]; j++)
                 {
-                    (int x0, int y0, int x1, int y1) = t.Box(boxIndex);
-                    for (int row = Math.Max(y0, top); row <= Math.Min(y1, bottom); row++) FillRow(t, boxIndex, row, x0, x1, pixels);
+                    ref readonly PreparedTriangle t = ref triangles[prepared.Order[j]];
+                    for (int boxIndex = 0; boxIndex < t.BoxCount; boxIndex++)
+                    {
+                        (int x0, int y0, int x1, int y1) = t.Box(boxIndex);
+                        for (int row = Math.Max(y0, top); row <= Math.Min(y1, bottom); row++) FillRow(t, boxIndex, row, x0, x1, pixels);
+                    }
                 }
             }
         }
@@ -404,24 +433,32 @@ public sealed class SkyRasterizer
             }
             int i = y * Width + x;
             if (x + Lanes <= Width) Shade(t, pixels.At(i), wanted);
-            else
-            {
-                // The last few pixels of a row go through a copy, so nothing past the row's end is read or written.
-                PixelPointers.Lane8 copy = default;
-                PixelPointers part = copy.Load(pixels.At(i), Width - x);
-                Shade(t, part, wanted);
-                copy.StoreSurface(pixels.At(i), Width - x);
-            }
+            else ShadeRowEnd(t, pixels.At(i), Width - x, wanted);
         }
+    }
+
+    /// <summary>
+    /// The last <paramref name="count"/> (&lt; 8) pixels of a row, through a copy so that nothing past the row's end is
+    /// read or written; kept out of line, so that the copy's stack space is not set up for every row.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.NoInlining)]
+    private static unsafe void ShadeRowEnd(in PreparedTriangle t, in PixelPointers at, int count, Vector256<float> wanted)
+    {
+        PixelPointers.Lane8 copy = default;
+        PixelPointers part = copy.Load(at, count);
+        Shade(t, part, wanted);
+        copy.StoreSurface(at, count);
     }
 
     /// <summary>Shades eight pixels for a triangle and blends the covered ones that are <paramref name="wanted"/> into the layer.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static unsafe void Shade(in PreparedTriangle t, in PixelPointers at, Vector256<float> wanted)
     {
-        Vector256<float> covered = wanted & t.Shade(Vector256.Load(at.X), Vector256.Load(at.Y), Vector256.Load(at.Z),
-            out Vector256<float> depth, out Vector256<float> red, out Vector256<float> green, out Vector256<float> blue, out Vector256<float> coverage);
+        Vector256<float> covered = wanted & t.Cover(Vector256.Load(at.X), Vector256.Load(at.Y), Vector256.Load(at.Z),
+            out Vector256<float> weightA, out Vector256<float> weightB, out Vector256<float> weightC, out Vector256<float> coverage);
+        // Most of the eight pixels searched around a small triangle lie outside it: only covered ones are interpolated.
         if (covered == Vector256<float>.Zero) return;
+        t.Interpolate(weightA, weightB, weightC, out Vector256<float> depth, out Vector256<float> red, out Vector256<float> green, out Vector256<float> blue);
         // Nearest surface in front; a partly covered pixel shows what lies behind it through the uncovered part.
         Vector256<float> oldRed = Vector256.Load(at.Red), oldGreen = Vector256.Load(at.Green), oldBlue = Vector256.Load(at.Blue);
         Vector256<float> oldAlpha = Vector256.Load(at.Alpha), oldDepth = Vector256.Load(at.Depth);
@@ -547,29 +584,34 @@ public sealed class SkyRasterizer
         };
 
         /// <summary>
-        /// Which of eight pixels (directions px, py, pz) lie inside the triangle, as a lane mask, with the depth,
-        /// colour and coverage interpolated at each (meaningful in the lanes inside only).
+        /// Which of eight pixels (directions px, py, pz) lie inside the triangle, as a lane mask, with their coverage
+        /// and their (unnormalised, non-negative) weights for <see cref="Interpolate"/>, meaningful in the lanes inside only.
         /// </summary>
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        public readonly Vector256<float> Shade(Vector256<float> px, Vector256<float> py, Vector256<float> pz, out Vector256<float> depth,
-            out Vector256<float> red, out Vector256<float> green, out Vector256<float> blue, out Vector256<float> coverage)
+        public readonly Vector256<float> Cover(Vector256<float> px, Vector256<float> py, Vector256<float> pz,
+            out Vector256<float> weightA, out Vector256<float> weightB, out Vector256<float> weightC, out Vector256<float> coverage)
         {
-            Vector256<float> weightA = Dot(_sideBC, px, py, pz), weightB = Dot(_sideCA, px, py, pz), weightC = Dot(_sideAB, px, py, pz);
+            weightA = Dot(_sideBC, px, py, pz); weightB = Dot(_sideCA, px, py, pz); weightC = Dot(_sideAB, px, py, pz);
             coverage = Vector256<float>.One;
             // NaN directions (no sky in this pixel) fail every comparison below.
             Vector256<float> inside = SideCoverage(weightA, _rampBC, ref coverage) & SideCoverage(weightB, _rampCA, ref coverage) & SideCoverage(weightC, _rampAB, ref coverage);
             weightA = Vector256.Max(weightA, Vector256<float>.Zero);
             weightB = Vector256.Max(weightB, Vector256<float>.Zero);
             weightC = Vector256.Max(weightC, Vector256<float>.Zero);
-            Vector256<float> total = weightA + weightB + weightC;
-            inside &= Vector256.GreaterThan(total, Vector256<float>.Zero);
-            Vector256<float> inverse = Vector256<float>.One / total;
+            return inside & Vector256.GreaterThan(weightA + weightB + weightC, Vector256<float>.Zero);
+        }
+
+        /// <summary>Depth and colour at eight pixels from their weights as <see cref="Cover"/> gives them.</summary>
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        public readonly void Interpolate(Vector256<float> weightA, Vector256<float> weightB, Vector256<float> weightC, out Vector256<float> depth,
+            out Vector256<float> red, out Vector256<float> green, out Vector256<float> blue)
+        {
+            Vector256<float> inverse = Vector256<float>.One / (weightA + weightB + weightC);
             weightA *= inverse; weightB *= inverse; weightC *= inverse;
             depth = Interpolate(weightA, weightB, weightC, _depthA, _depthB, _depthC);
             red = Interpolate(weightA, weightB, weightC, _colourA.X, _colourB.X, _colourC.X);
             green = Interpolate(weightA, weightB, weightC, _colourA.Y, _colourB.Y, _colourC.Y);
             blue = Interpolate(weightA, weightB, weightC, _colourA.Z, _colourB.Z, _colourC.Z);
-            return inside;
         }
 
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
