@@ -455,13 +455,9 @@ public sealed class StarSplatter
                 TileBounds clip = Tile(band, tileColumn);
                 var target = new SplatTarget(scratch, scratch + TilePixels, scratch + 2 * TilePixels, marks, TileWidth, GroupsPerTileRow, clip.FirstRow, clip.FirstColumn);
                 SplatTile(target, band, tileColumn, clip);
-                for (int row = clip.FirstRow; row < clip.EndRow; row++)
-                {
-                    int at = (row - clip.FirstRow) * TileWidth;
-                    ToneMapper.MapMarkedRow(scratch + at, scratch + TilePixels + at, scratch + 2 * TilePixels + at, marks + (row - clip.FirstRow) * GroupsPerTileRow,
-                        rgba + (long)row * _width + clip.FirstColumn, clip.EndColumn - clip.FirstColumn, _exposureScale,
-                        lit + row * _image.LitEntriesPerRow + tileColumn * LitEntriesPerTile, _litKnown);
-                }
+                ToneMapper.MapMarkedRows(new ToneMapper.MarkedPlanes(scratch, scratch + TilePixels, scratch + 2 * TilePixels, TileWidth, marks, GroupsPerTileRow),
+                    rgba + (long)clip.FirstRow * _width + clip.FirstColumn, _width, clip.EndColumn - clip.FirstColumn, clip.EndRow - clip.FirstRow, _exposureScale,
+                    lit + clip.FirstRow * _image.LitEntriesPerRow + tileColumn * LitEntriesPerTile, _image.LitEntriesPerRow, _litKnown);
             }
         }
     }

@@ -29,8 +29,11 @@ public static class ToneMapper
     private static readonly int FirstStep = BitConverter.SingleToInt32Bits(DarkestExposed) >> (23 - StepBits);
     private static readonly int LastEntry = (BitConverter.SingleToInt32Bits(White) >> (23 - StepBits)) - FirstStep;
 
-    /// <summary>The 8-bit code for each step of exposed values, as ints so that whole vectors gather at once.</summary>
-    private static readonly int[] EncodedTable = BuildEncodedTable();
+    /// <summary>The 8-bit code for each step of exposed values.</summary>
+    private static readonly byte[] EncodedTable = BuildEncodedTable();
+
+    /// <summary>Bytes after the last entry, so that a four-byte gather at the last entry stays inside the table.</summary>
+    private const int TablePadding = sizeof(int) - 1;
 
     /// <summary>The tone curve for one exposed linear value, in [0, 1]; the mapper's table holds it, encoded.</summary>
     public static double Curve(double exposed)
@@ -41,7 +44,7 @@ public static class ToneMapper
     }
 
     /// <summary>The 8-bit sRGB code the mapper writes for an exposed linear value (HDR × exposure scale).</summary>
-    public static byte Code(float exposed) => (byte)EncodedTable[TableIndex(exposed)];
+    public static byte Code(float exposed) => EncodedTable[TableIndex(exposed)];
 
     /// <summary>
     /// Tone maps rows [<paramref name="firstRow"/>, <paramref name="endRow"/>) of <paramref name="hdr"/> into RGBA8
@@ -50,7 +53,7 @@ public static class ToneMapper
     /// Unless the frame is <see cref="HdrFrame.WhollyTouched"/>, only the touched pixel groups are read (the rest are
     /// zero, so they map to black and are written as black) and their marks are cleared; <paramref name="lit"/> (laid
     /// out like the image's note of lit groups, row for row with <paramref name="rgba"/>; null for none) is used and
-    /// updated as in <see cref="MapMarkedRow"/>.
+    /// updated as in <see cref="MapMarkedRows"/>.
     /// </summary>
     public static unsafe void MapAndClearRows(HdrFrame hdr, float exposureScale, uint* rgba, ushort* lit, bool litKnown, int firstRow, int endRow)
     {
@@ -65,55 +68,98 @@ public static class ToneMapper
                 return;
             }
             int litPerRow = (hdr.GroupsPerRow + MarkBlock - 1) / MarkBlock;
-            for (int row = firstRow; row < endRow; row++)
+            // A few rows at a time, which bounds the masks kept on the stack.
+            for (int row = firstRow; row < endRow; row += RowsAtOnce)
             {
-                int rowStart = row * hdr.Width;
-                MapMarkedRow(red + rowStart, green + rowStart, blue + rowStart, touched + row * hdr.GroupsPerRow, rgba + rowStart, hdr.Width, exposureScale,
-                    lit == null ? null : lit + row * litPerRow, litKnown);
+                int start = row * hdr.Width;
+                MapMarkedRows(new MarkedPlanes(red + start, green + start, blue + start, hdr.Width, touched + row * hdr.GroupsPerRow, hdr.GroupsPerRow),
+                    rgba + start, hdr.Width, hdr.Width, Math.Min(RowsAtOnce, endRow - row), exposureScale, lit == null ? null : lit + row * litPerRow, litPerRow, litKnown);
             }
         }
     }
 
     private const uint OpaqueBlack = 0xFF000000u;
 
+    /// <summary>Rows <see cref="MapAndClearRows"/> hands to <see cref="MapMarkedRows"/> at once: a star band's height.</summary>
+    private const int RowsAtOnce = 16;
+
     /// <summary>
-    /// One row of <paramref name="width"/> pixels with a mark per <see cref="HdrFrame.GroupWidth"/>-pixel group: each
-    /// marked group is mapped, its HDR values zeroed and its mark cleared, and every other group is black (what an
-    /// untouched, all-zero group maps to). When <paramref name="litKnown"/>, the row's groups not noted in
-    /// <paramref name="lit"/> (one entry per <see cref="RgbaImage.GroupsPerLitEntry"/> groups) are black already and
-    /// only the noted ones are written black; otherwise the whole row is. Either way <paramref name="lit"/> (unless
-    /// null) is left noting the marked groups.
+    /// Rows of HDR planes (<see cref="Stride"/> floats apart) with a mark per <see cref="HdrFrame.GroupWidth"/>-pixel
+    /// group (<see cref="MarkStride"/> bytes apart).
     /// </summary>
-    internal static unsafe void MapMarkedRow(float* red, float* green, float* blue, byte* marks, uint* rgba, int width, float exposureScale,
-        ushort* lit, bool litKnown)
+    internal readonly unsafe struct MarkedPlanes(float* red, float* green, float* blue, int stride, byte* marks, int markStride)
+    {
+        public readonly float* Red = red, Green = green, Blue = blue;
+        public readonly int Stride = stride, MarkStride = markStride;
+        public readonly byte* Marks = marks;
+    }
+
+    /// <summary>
+    /// <paramref name="rows"/> rows of <paramref name="width"/> pixels, written to <paramref name="rgba"/> (rows
+    /// <paramref name="rgbaStride"/> pixels apart): each marked group is mapped, its HDR values zeroed and its mark
+    /// cleared, and every other group is black (what an untouched, all-zero group maps to). When
+    /// <paramref name="litKnown"/>, the groups not noted in <paramref name="lit"/> (per row, one entry per
+    /// <see cref="RgbaImage.GroupsPerLitEntry"/> groups; rows <paramref name="litStride"/> entries apart) are black
+    /// already and only the noted ones are written black; otherwise whole rows are. Either way <paramref name="lit"/>
+    /// (unless null) is left noting the marked groups.
+    /// <para>
+    /// Marks are scattered (a star touches a few groups), so they are first read into bit masks, 16 groups to a mask,
+    /// and the groups to write are then visited four masks at a time: a loop exit the processor cannot predict per 64
+    /// groups instead of per row, and the gathers of many groups in flight at once.
+    /// </para>
+    /// </summary>
+    internal static unsafe void MapMarkedRows(in MarkedPlanes planes, uint* rgba, int rgbaStride, int width, int rows, float exposureScale,
+        ushort* lit, int litStride, bool litKnown)
     {
         litKnown &= lit != null;
-        if (!litKnown) new Span<uint>(rgba, width).Fill(OpaqueBlack);
-        int wholeGroups = width / HdrFrame.GroupWidth, groups = (width + HdrFrame.GroupWidth - 1) / HdrFrame.GroupWidth;
-        fixed (int* table = EncodedTable)
+        int groups = (width + HdrFrame.GroupWidth - 1) / HdrFrame.GroupWidth, blocksPerRow = (groups + MarkBlock - 1) / MarkBlock;
+        // Per block of 16 groups: the marked ones, and those to write black; padded to whole 64-bit words of four blocks.
+        int blocks = rows * blocksPerRow, paddedBlocks = (blocks + 3) & ~3;
+        ushort* marked = stackalloc ushort[paddedBlocks], dark = stackalloc ushort[paddedBlocks];
+        for (int row = 0; row < rows; row++)
         {
-            bool vectorized = Avx2.IsSupported && HdrFrame.GroupWidth == Vector256<float>.Count;
-            var scale = Vector256.Create(exposureScale);
-            // Marks are scattered (a star touches a few groups), so they are read a block at a time and the marked
-            // groups visited through the block's bit mask: one hard-to-predict branch per block, not per group.
-            for (int block = 0; block < groups; block += MarkBlock)
+            if (!litKnown) new Span<uint>(rgba + (long)row * rgbaStride, width).Fill(OpaqueBlack);
+            byte* rowMarks = planes.Marks + row * planes.MarkStride;
+            for (int block = 0; block < blocksPerRow; block++)
             {
-                int blockLength = Math.Min(MarkBlock, groups - block);
-                uint marked = MarkedGroups(marks + block, blockLength);
-                ushort* noted = lit == null ? null : lit + block / MarkBlock;
-                if (litKnown)
-                    for (uint dark = *noted & ~marked; dark != 0; dark &= dark - 1)
-                        WriteBlack(rgba, (block + BitOperations.TrailingZeroCount(dark)) * HdrFrame.GroupWidth, width);
-                if (lit != null) *noted = (ushort)marked;
-                for (; marked != 0; marked &= marked - 1)
-                {
-                    int group = block + BitOperations.TrailingZeroCount(marked), first = group * HdrFrame.GroupWidth;
-                    if (vectorized && group < wholeGroups) MapVector(red + first, green + first, blue + first, rgba + first, scale, table);
-                    else MapAndClear(red + first, green + first, blue + first, rgba + first, Math.Min(HdrFrame.GroupWidth, width - first), exposureScale);
-                }
-                new Span<byte>(marks + block, blockLength).Clear();
+                int at = row * blocksPerRow + block;
+                ushort mask = (ushort)MarkedGroups(rowMarks + block * MarkBlock, Math.Min(MarkBlock, groups - block * MarkBlock));
+                marked[at] = mask;
+                dark[at] = litKnown ? (ushort)(lit[row * litStride + block] & ~mask) : (ushort)0;
+                if (lit != null) lit[row * litStride + block] = mask;
             }
+            new Span<byte>(rowMarks, groups).Clear();
         }
+        for (int at = blocks; at < paddedBlocks; at++) marked[at] = dark[at] = 0;
+        int wholeGroups = width / HdrFrame.GroupWidth;
+        bool vectorized = Avx2.IsSupported && HdrFrame.GroupWidth == Vector256<float>.Count;
+        var scale = Vector256.Create(exposureScale);
+        fixed (byte* table = EncodedTable)
+            for (int word = 0; word < paddedBlocks; word += 4)
+            {
+                for (ulong bits = *(ulong*)(dark + word); bits != 0; bits &= bits - 1)
+                {
+                    (int row, int group) = Locate(word, BitOperations.TrailingZeroCount(bits), blocksPerRow);
+                    WriteBlack(rgba + (long)row * rgbaStride, group * HdrFrame.GroupWidth, width);
+                }
+                for (ulong bits = *(ulong*)(marked + word); bits != 0; bits &= bits - 1)
+                {
+                    (int row, int group) = Locate(word, BitOperations.TrailingZeroCount(bits), blocksPerRow);
+                    int first = group * HdrFrame.GroupWidth, pixel = row * planes.Stride + first;
+                    uint* output = rgba + (long)row * rgbaStride + first;
+                    if (vectorized && group < wholeGroups) MapVector(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, output, scale, table);
+                    else MapAndClear(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, output, Math.Min(HdrFrame.GroupWidth, width - first), exposureScale);
+                }
+            }
+    }
+
+    /// <summary>Row and group of bit <paramref name="bit"/> of the word of masks starting at block <paramref name="word"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static (int Row, int Group) Locate(int word, int bit, int blocksPerRow)
+    {
+        int block = word + bit / MarkBlock;
+        (int row, int blockInRow) = blocksPerRow == 1 ? (block, 0) : Math.DivRem(block, blocksPerRow);
+        return (row, blockInRow * MarkBlock + bit % MarkBlock);
     }
 
     /// <summary>Groups whose marks are read at once: a 128-bit vector of mark bytes, noted as one lit entry.</summary>
@@ -137,13 +183,18 @@ public static class ToneMapper
         return marked;
     }
 
-    /// <summary>Eight pixels at once (AVX2): gather the encoded curve, pack RGBA, zero the HDR values.</summary>
+    /// <summary>
+    /// Eight pixels at once (AVX2): gather the encoded curve, pack RGBA, zero the HDR values. The table is bytes (20 KB,
+    /// which stays in the first-level cache beside a tile; as ints it was 80 KB and did not), gathered as ints at byte
+    /// offsets and cut to their low byte, so it carries <see cref="TablePadding"/> bytes past its last entry.
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static unsafe void MapVector(float* red, float* green, float* blue, uint* rgba, Vector256<float> scale, int* table)
+    private static unsafe void MapVector(float* red, float* green, float* blue, uint* rgba, Vector256<float> scale, byte* table)
     {
-        Vector256<int> r = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(red) * scale), 4);
-        Vector256<int> g = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(green) * scale), 4);
-        Vector256<int> b = Avx2.GatherVector256(table, TableIndex(Avx.LoadVector256(blue) * scale), 4);
+        Vector256<int> lowByte = Vector256.Create(0xFF);
+        Vector256<int> r = Avx2.GatherVector256((int*)table, TableIndex(Avx.LoadVector256(red) * scale), 1) & lowByte;
+        Vector256<int> g = Avx2.GatherVector256((int*)table, TableIndex(Avx.LoadVector256(green) * scale), 1) & lowByte;
+        Vector256<int> b = Avx2.GatherVector256((int*)table, TableIndex(Avx.LoadVector256(blue) * scale), 1) & lowByte;
         Avx.Store(red, Vector256<float>.Zero);
         Avx.Store(green, Vector256<float>.Zero);
         Avx.Store(blue, Vector256<float>.Zero);
@@ -154,7 +205,7 @@ public static class ToneMapper
     internal static unsafe void MapAndClear(float* red, float* green, float* blue, uint* rgba, int count, float exposureScale)
     {
         int pixel = 0;
-        fixed (int* table = EncodedTable)
+        fixed (byte* table = EncodedTable)
         {
             if (Avx2.IsSupported)
             {
@@ -191,14 +242,14 @@ public static class ToneMapper
     }
 
     /// <summary>Entry i: the code for the geometric middle of step i (the last entry is white itself).</summary>
-    private static int[] BuildEncodedTable()
+    private static byte[] BuildEncodedTable()
     {
-        var table = new int[LastEntry + 1];
+        var table = new byte[LastEntry + 1 + TablePadding];
         for (int i = 0; i <= LastEntry; i++)
         {
             int bits = (FirstStep + i) << (23 - StepBits);
             double low = BitConverter.Int32BitsToSingle(bits), high = BitConverter.Int32BitsToSingle(bits + (1 << (23 - StepBits)));
-            table[i] = (int)Math.Round(255 * SrgbTransfer.Encode(Curve(Math.Sqrt(low * high))), MidpointRounding.AwayFromZero);
+            table[i] = (byte)Math.Round(255 * SrgbTransfer.Encode(Curve(Math.Sqrt(low * high))), MidpointRounding.AwayFromZero);
         }
         return table;
     }
