@@ -113,16 +113,20 @@ public static class ToneMapper
     {
         litKnown &= lit != null;
         int groups = (width + HdrFrame.GroupWidth - 1) / HdrFrame.GroupWidth, blocksPerRow = (groups + MarkBlock - 1) / MarkBlock;
-        // Per block of 16 groups: the marked ones, and those to write black; padded to whole 64-bit words of four blocks.
-        int blocks = rows * blocksPerRow, paddedBlocks = (blocks + 3) & ~3;
+        // Per block of 16 groups: the marked ones, and those to write black, in 64-bit words of four blocks. A row of one
+        // block shares a word with the next three rows; longer rows start a word of their own, so a word is in one row.
+        int maskRowStride = blocksPerRow == 1 ? 1 : (blocksPerRow + 3) & ~3;
+        int paddedBlocks = (rows * maskRowStride + 3) & ~3;
         ushort* marked = stackalloc ushort[paddedBlocks], dark = stackalloc ushort[paddedBlocks];
+        new Span<ushort>(marked, paddedBlocks).Clear();
+        new Span<ushort>(dark, paddedBlocks).Clear();
         for (int row = 0; row < rows; row++)
         {
             if (!litKnown) new Span<uint>(rgba + (long)row * rgbaStride, width).Fill(OpaqueBlack);
             byte* rowMarks = planes.Marks + row * planes.MarkStride;
             for (int block = 0; block < blocksPerRow; block++)
             {
-                int at = row * blocksPerRow + block;
+                int at = row * maskRowStride + block;
                 ushort mask = (ushort)MarkedGroups(rowMarks + block * MarkBlock, Math.Min(MarkBlock, groups - block * MarkBlock));
                 marked[at] = mask;
                 dark[at] = litKnown ? (ushort)(lit[row * litStride + block] & ~mask) : (ushort)0;
@@ -130,21 +134,21 @@ public static class ToneMapper
             }
             new Span<byte>(rowMarks, groups).Clear();
         }
-        for (int at = blocks; at < paddedBlocks; at++) marked[at] = dark[at] = 0;
         int wholeGroups = width / HdrFrame.GroupWidth;
         bool vectorized = Avx2.IsSupported && HdrFrame.GroupWidth == Vector256<float>.Count;
         var scale = Vector256.Create(exposureScale);
         fixed (byte* table = EncodedTable)
             for (int word = 0; word < paddedBlocks; word += 4)
             {
+                (int wordRow, int wordBlock) = Math.DivRem(word, maskRowStride);
                 for (ulong bits = *(ulong*)(dark + word); bits != 0; bits &= bits - 1)
                 {
-                    (int row, int group) = Locate(word, BitOperations.TrailingZeroCount(bits), blocksPerRow);
+                    (int row, int group) = Locate(wordRow, wordBlock, BitOperations.TrailingZeroCount(bits), maskRowStride);
                     WriteBlack(rgba + (long)row * rgbaStride, group * HdrFrame.GroupWidth, width);
                 }
                 for (ulong bits = *(ulong*)(marked + word); bits != 0; bits &= bits - 1)
                 {
-                    (int row, int group) = Locate(word, BitOperations.TrailingZeroCount(bits), blocksPerRow);
+                    (int row, int group) = Locate(wordRow, wordBlock, BitOperations.TrailingZeroCount(bits), maskRowStride);
                     int first = group * HdrFrame.GroupWidth, pixel = row * planes.Stride + first;
                     uint* output = rgba + (long)row * rgbaStride + first;
                     if (vectorized && group < wholeGroups) MapVector(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, output, scale, table);
@@ -153,14 +157,10 @@ public static class ToneMapper
             }
     }
 
-    /// <summary>Row and group of bit <paramref name="bit"/> of the word of masks starting at block <paramref name="word"/>.</summary>
+    /// <summary>Row and group of bit <paramref name="bit"/> of a word of masks whose first block is block <paramref name="wordBlock"/> of row <paramref name="wordRow"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static (int Row, int Group) Locate(int word, int bit, int blocksPerRow)
-    {
-        int block = word + bit / MarkBlock;
-        (int row, int blockInRow) = blocksPerRow == 1 ? (block, 0) : Math.DivRem(block, blocksPerRow);
-        return (row, blockInRow * MarkBlock + bit % MarkBlock);
-    }
+    private static (int Row, int Group) Locate(int wordRow, int wordBlock, int bit, int maskRowStride) =>
+        maskRowStride == 1 ? (wordRow + bit / MarkBlock, bit % MarkBlock) : (wordRow, (wordBlock + bit / MarkBlock) * MarkBlock + bit % MarkBlock);
 
     /// <summary>Groups whose marks are read at once: a 128-bit vector of mark bytes, noted as one lit entry.</summary>
     private const int MarkBlock = RgbaImage.GroupsPerLitEntry;
