@@ -185,7 +185,7 @@ public static class ToneMapper
 
     /// <summary>
     /// Eight pixels at once (AVX2): gather the encoded curve, pack RGBA, zero the HDR values. The table is bytes (20 KB,
-    /// which stays in the first-level cache beside a tile; as ints it was 80 KB and did not), gathered as ints at byte
+    /// which stays in the first-level cache beside a tile, where ints would take 80 KB), gathered as ints at byte
     /// offsets and cut to their low byte, so it carries <see cref="TablePadding"/> bytes past its last entry.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
