@@ -101,7 +101,7 @@ public sealed class CosmicBackgroundPainter
             Span<int> bins = MemoryMarshal.Cast<float, int>(scratch.AsSpan(3 * width, width));
             for (int row = firstRow; row < endRow; row++)
             {
-                _projection!.UnprojectRow(row, dx, dy, dz);
+                _projection!.UnprojectRow(row, 0, dx, dy, dz);
                 TableIndices(dx, dy, dz, bins);
                 int offset = row * width;
                 for (int column = 0; column < width; column++)

@@ -58,7 +58,7 @@ public sealed class LineDrawer
         if (buffer.Width != surfaces.Width || rows.EndRow > surfaces.Height || rows.EndRow - rows.Origin > buffer.Height || rows.FirstRow < rows.Origin)
             throw new ArgumentException("rows and surface layer differ in size", nameof(rows));
         ReadOnlySpan<Stroke> strokes = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_strokes);
-        fixed (float* red = buffer.Red, green = buffer.Green, blue = buffer.Blue, skyX = surfaces.Directions.X, depth = surfaces.Depths)
+        fixed (float* red = buffer.Red, green = buffer.Green, blue = buffer.Blue, depth = surfaces.Depths)
         fixed (byte* touched = buffer.Touched)
         for (int band = rows.FirstRow / BandRows; band * BandRows < rows.EndRow; band++)
         {
@@ -70,8 +70,8 @@ public sealed class LineDrawer
                 ref readonly Stroke stroke = ref strokes[k];
                 // Most segments pass no surface and cross only pixels that show sky: those skip the per-pixel depth and
                 // sky tests, which keeps a pixel's memory traffic to its three colour planes.
-                var line = new Line(stroke, colourScale, new Pixels(red, green, blue, touched, skyX, depth, rows),
-                    bandMeetsSurface && stroke.MayMeetSurface(surfaces, top, bottom), surfaces.Directions.HasBlankPixels);
+                var line = new Line(stroke, colourScale, new Pixels(red, green, blue, touched, depth, surfaces.Sky, rows),
+                    bandMeetsSurface && stroke.MayMeetSurface(surfaces, top, bottom), surfaces.Sky.HasBlankPixels);
                 if (line.TestsPixels) line.Draw<EveryPixelTested>(top, bottom);
                 else line.Draw<NoPixelTested>(top, bottom);
             }
@@ -122,10 +122,11 @@ public sealed class LineDrawer
         }
     }
 
-    /// <summary>The band's pixels as the drawing loops address them: colour planes and marks from the band's first row, sky directions and surface depths of the whole frame (pinned by the caller).</summary>
-    private readonly unsafe struct Pixels(float* red, float* green, float* blue, byte* touched, float* skyX, float* depth, HdrBand rows)
+    /// <summary>The band's pixels as the drawing loops address them: colour planes and marks from the band's first row, surface depths of the whole frame (pinned by the caller), and which pixels show the sky.</summary>
+    private readonly unsafe struct Pixels(float* red, float* green, float* blue, byte* touched, float* depth, ImageSky sky, HdrBand rows)
     {
-        public readonly float* Red = red, Green = green, Blue = blue, SkyX = skyX, Depth = depth;
+        public readonly float* Red = red, Green = green, Blue = blue, Depth = depth;
+        public readonly ImageSky Sky = sky;
         public readonly byte* Touched = touched;
         public readonly int Width = rows.Buffer.Width, GroupsPerRow = rows.Buffer.GroupsPerRow, Origin = rows.Origin;
     }
@@ -222,7 +223,7 @@ public sealed class LineDrawer
                 & Vector256.LessThanOrEqual(Vector256.Create(x) + VectorLanes.Indices, Vector256.Create(to)).AsSingle();
             // Index of the first lane in the frame (depth, sky) and in the band's buffer (colour).
             int pixel = y * _width + x, i = pixel - pixels.Origin * _width;
-            if (TTests.Enabled) covered &= Visible(pixel, Math.Min(VectorLanes.Count, _width - x), Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
+            if (TTests.Enabled) covered &= Visible(y, x, pixel, Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
             uint lanes = covered.ExtractMostSignificantBits();
             if (lanes == 0) return;
             Vector256<float> red = Vector256.Create(_colour0.X) + t * Vector256.Create(_colourChange.X);
@@ -249,15 +250,19 @@ public sealed class LineDrawer
             rowMarks[(uint)(x + 31 - BitOperations.LeadingZeroCount(lanes)) / HdrFrame.GroupWidth] = 1;
         }
 
-        /// <summary>Lanes from frame pixel <paramref name="i"/> (<paramref name="count"/> of them inside the row) not behind a surface (line depth <paramref name="lineDepth"/>) and showing sky.</summary>
-        private Vector256<float> Visible(int i, int count, Vector256<float> lineDepth)
+        /// <summary>
+        /// Lanes of row <paramref name="y"/> from column <paramref name="x"/> (frame pixel <paramref name="i"/>) not
+        /// behind a surface (line depth <paramref name="lineDepth"/>) and showing sky.
+        /// </summary>
+        private Vector256<float> Visible(int y, int x, int i, Vector256<float> lineDepth)
         {
             Vector256<float> visible = Vector256<float>.AllBitsSet;
-            if (testDepth) visible = Vector256.LessThanOrEqual(lineDepth, Lanes(pixels.Depth + i, count));
+            if (testDepth) visible = Vector256.LessThanOrEqual(lineDepth, Lanes(pixels.Depth + i, Math.Min(VectorLanes.Count, _width - x)));
             if (testSky)
             {
-                Vector256<float> skyX = Lanes(pixels.SkyX + i, count);
-                visible &= Vector256.Equals(skyX, skyX);
+                (int first, int last) = pixels.Sky.SkyColumns(y);
+                Vector256<int> column = Vector256.Create(x) + VectorLanes.Indices;
+                visible &= (Vector256.GreaterThanOrEqual(column, Vector256.Create(first)) & Vector256.LessThanOrEqual(column, Vector256.Create(last))).AsSingle();
             }
             return visible;
         }

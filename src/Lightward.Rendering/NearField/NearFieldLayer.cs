@@ -151,7 +151,7 @@ public sealed class NearFieldLayer : IFrameLayer
 
     private SkyRasterizer RasterizerFor(Projection projection)
     {
-        if (_rasterizer?.Projection != projection) _rasterizer = new SkyRasterizer(new PixelDirections(projection));
+        if (_rasterizer?.Projection != projection) _rasterizer = new SkyRasterizer(new ImageSky(projection));
         return _rasterizer;
     }
 }

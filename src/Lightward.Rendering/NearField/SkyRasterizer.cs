@@ -10,7 +10,7 @@ namespace Lightward.Rendering.NearField;
 /// <summary>
 /// Draws <see cref="SkyTriangle"/>s into an opaque-surface layer with its own depth buffer, for any projection.
 /// A pixel belongs to a triangle when the direction through its centre lies inside the spherical triangle (three
-/// great-circle side tests on the cached <see cref="PixelDirections"/>), so the equirectangular wrap, a dome's rim and
+/// great-circle side tests on the pixel's direction, worked out per band), so the equirectangular wrap, a dome's rim and
 /// the region behind a perspective camera need no special cases: only the pixel box to search is found per
 /// projection, by subdividing triangles whose box is not trustworthy. Outline sides get a half-pixel ramp on either
 /// side (anti-aliasing); the nearest emission event wins each pixel. Triangles come in parts, prepared side by side,
@@ -39,7 +39,7 @@ public sealed class SkyRasterizer
     /// <summary>A triangle whose corners' images lie within a box this many pixels wide (and a quarter of the image) cannot straddle a seam.</summary>
     private const double SmallBox = 16;
 
-    private readonly PixelDirections _directions;
+    private readonly ImageSky _sky;
     private readonly ViewCap _view;
     /// <summary>The layer, row-major: premultiplied surface colour, coverage, and the emission distance of the nearest surface (+∞ where none).</summary>
     private readonly SurfacePlanes _pixels;
@@ -57,12 +57,16 @@ public sealed class SkyRasterizer
     /// <summary>Per row band, the brightness of its surfaces, counted as the band is filled (see <see cref="AddSurfaceLevels"/>).</summary>
     private readonly LevelHistogram[] _bandLevels;
     private bool _filled;
-    private readonly Action<int> _fillBand;
+    private readonly Func<BandDirections> _rentDirections;
+    private readonly Func<int, ParallelLoopState, BandDirections, BandDirections> _fillBand;
+    private readonly Action<BandDirections> _returnDirections;
+    /// <summary>Band-sized direction buffers, one per thread of the fill.</summary>
+    private readonly Stack<BandDirections> _bandDirections = new();
 
-    public SkyRasterizer(PixelDirections directions)
+    public SkyRasterizer(ImageSky sky)
     {
-        _directions = directions;
-        _view = ViewCap.Of(directions);
+        _sky = sky;
+        _view = sky.View;
         _pixels = new SurfacePlanes(Width * Height);
         _tileColumns = (Width + TileSize - 1) / TileSize;
         _tileRows = (Height + TileSize - 1) / TileSize;
@@ -71,10 +75,12 @@ public sealed class SkyRasterizer
         _smallBox = Math.Min(SmallBox, Math.Min(Width, Height) / 4.0);
         _bandCount = (Height + BandRows - 1) / BandRows;
         _bandLevels = Enumerable.Range(0, _bandCount).Select(_ => new LevelHistogram()).ToArray();
+        _rentDirections = RentDirections;
         _fillBand = FillBand;
+        _returnDirections = ReturnDirections;
     }
 
-    public Projection Projection => _directions.Projection;
+    public Projection Projection => _sky.Projection;
     public int Width => Projection.Width;
     public int Height => Projection.Height;
 
@@ -102,7 +108,8 @@ public sealed class SkyRasterizer
 
     private static int TileOf(float position, int limit) => (int)Math.Clamp(position, 0, limit - 1) / TileSize;
 
-    public PixelDirections Directions => _directions;
+    /// <summary>Which pixels show the sky.</summary>
+    public ImageSky Sky => _sky;
 
     /// <summary>The cone of directions the image shows.</summary>
     public ViewCap View => _view;
@@ -133,7 +140,7 @@ public sealed class SkyRasterizer
         _filled = false;
         _drawnTiles = DrawnTiles();
         if (_drawnTiles.FirstRow > _drawnTiles.LastRow) return;
-        Parallel.For(0, _bandCount, parallel, _fillBand);
+        Parallel.For(0, _bandCount, parallel, _rentDirections, _fillBand, _returnDirections);
         _filled = true;
     }
 
@@ -389,13 +396,49 @@ public sealed class SkyRasterizer
         }
     }
 
-    private unsafe void FillBand(int band)
+    /// <summary>
+    /// The directions through one band's pixels, worked out afresh for the drawn tiles each time the band is filled:
+    /// a frame-sized table of them would come from main memory, row by row, which costs far more than the few
+    /// operations per pixel of the projection's own vectorised unprojection.
+    /// </summary>
+    private sealed class BandDirections(int width)
+    {
+        public readonly float[] X = new float[BandRows * width], Y = new float[BandRows * width], Z = new float[BandRows * width];
+    }
+
+    private readonly struct UnprojectRun(Projection projection, BandDirections directions, int top) : IRunAction
+    {
+        public void Run(int row, int start, int end)
+        {
+            int width = projection.Width, column = start - row * width, at = (row - top) * width + column;
+            projection.UnprojectRow(row, column, directions.X.AsSpan(at, end - start), directions.Y.AsSpan(at, end - start), directions.Z.AsSpan(at, end - start));
+        }
+    }
+
+    private BandDirections RentDirections()
+    {
+        lock (_bandDirections)
+            if (_bandDirections.TryPop(out BandDirections? directions)) return directions;
+        return new BandDirections(Width);
+    }
+
+    private void ReturnDirections(BandDirections directions)
+    {
+        lock (_bandDirections) _bandDirections.Push(directions);
+    }
+
+    private unsafe BandDirections FillBand(int band, ParallelLoopState _, BandDirections directions)
     {
         int top = band * BandRows, bottom = Math.Min(Height, top + BandRows) - 1;
-        fixed (float* x = _directions.X, y = _directions.Y, z = _directions.Z)
+        // Only the drawn tiles' directions: every pixel a triangle searches lies in one.
+        var unproject = new UnprojectRun(Projection, directions, top);
+        ForEachDirtyRun(top, bottom + 1, ref unproject);
+        fixed (float* bandX = directions.X, bandY = directions.Y, bandZ = directions.Z)
         fixed (float* red = _pixels.Red, green = _pixels.Green, blue = _pixels.Blue, alpha = _pixels.Alpha, depth = _pixels.Depth)
         {
-            var pixels = new PixelPointers(x, y, z, red, green, blue, alpha, depth);
+            // Addressed by frame pixel like the surface planes: the band's first row sits at its start.
+            long shift = (long)top * Width;
+            var pixels = new PixelPointers(bandX - shift, bandY - shift, bandZ - shift, red, green, blue, alpha, depth);
             for (int part = 0; part < _partCount; part++)
             {
                 PreparedPart prepared = _parts[part];
@@ -414,6 +457,7 @@ public sealed class SkyRasterizer
         _bandLevels[band].Clear();
         var count = new LevelsOfRun(_pixels, _bandLevels[band]);
         ForEachDirtyRun(top, bottom + 1, ref count);
+        return directions;
     }
 
     /// <summary>Pixels [<paramref name="x0"/>, <paramref name="x1"/>] of row <paramref name="y"/>, eight at a time.</summary>

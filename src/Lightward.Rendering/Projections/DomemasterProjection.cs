@@ -1,5 +1,4 @@
 using System.Numerics;
-using System.Runtime.InteropServices;
 using Lightward.Spacetime;
 
 namespace Lightward.Rendering.Projections;
@@ -92,35 +91,24 @@ public sealed class DomemasterProjection : Projection
         radianceScale = Vector.ConditionalSelect(Vector.LessThan(zenithAngle, new Vector<float>(MathF.PI / 2)), frontScale, backScale);
     }
 
-    public override void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz)
+    public override void UnprojectRow(int row, int firstColumn, Span<float> dx, Span<float> dy, Span<float> dz) =>
+        UnprojectRun(new RowUnprojection(_centre, _centre - (row + 0.5f), _anglePerPixel, _halfAperture), firstColumn, dx, dy, dz);
+
+    /// <summary>A row of the dome: each pixel's zenith angle is its distance from the disc centre times the angle per pixel.</summary>
+    private readonly struct RowUnprojection(float centre, float up, float anglePerPixel, float halfAperture) : IRowUnprojection
     {
-        float up = _centre - (row + 0.5f);
-        var upVector = new Vector<float>(up);
-        var step = new Vector<float>(Vector<float>.Count);
-        var anglePerPixel = new Vector<float>(_anglePerPixel);
-        var halfAperture = new Vector<float>(_halfAperture);
-        var noDirection = new Vector<float>(float.NaN);
-        Vector<float> right = PixelCentreOffsets(0, _centre);
-        int vectorCount = Width / Vector<float>.Count;
-        Span<Vector<float>> outX = MemoryMarshal.Cast<float, Vector<float>>(dx), outY = MemoryMarshal.Cast<float, Vector<float>>(dy), outZ = MemoryMarshal.Cast<float, Vector<float>>(dz);
-        for (int i = 0; i < vectorCount; i++, right += step)
+        public void Unproject(int firstColumn, out Vector<float> dx, out Vector<float> dy, out Vector<float> dz)
         {
+            Vector<float> right = PixelCentreOffsets(firstColumn, centre), upVector = new(up), noDirection = new(float.NaN);
             // Pixel centres are never exactly at the disc centre for the even sizes used, but guard odd sizes.
             Vector<float> radius = Vector.Max(Vector.SquareRoot(right * right + upVector * upVector), new Vector<float>(1e-6f));
-            Vector<float> zenithAngle = radius * anglePerPixel;
+            Vector<float> zenithAngle = radius * new Vector<float>(anglePerPixel);
             (Vector<float> sine, Vector<float> cosine) = Vector.SinCos(zenithAngle);
             Vector<float> sinOverRadius = sine / radius;
-            Vector<int> inside = Vector.LessThanOrEqual(zenithAngle, halfAperture);
-            outX[i] = Vector.ConditionalSelect(inside, sinOverRadius * right, noDirection);
-            outY[i] = Vector.ConditionalSelect(inside, sinOverRadius * upVector, noDirection);
-            outZ[i] = Vector.ConditionalSelect(inside, cosine, noDirection);
-        }
-        for (int column = vectorCount * Vector<float>.Count; column < Width; column++)
-        {
-            bool inside = TryUnproject(column + 0.5, row + 0.5, out Vec3 direction);
-            dx[column] = inside ? (float)direction.X : float.NaN;
-            dy[column] = inside ? (float)direction.Y : float.NaN;
-            dz[column] = inside ? (float)direction.Z : float.NaN;
+            Vector<int> inside = Vector.LessThanOrEqual(zenithAngle, new Vector<float>(halfAperture));
+            dx = Vector.ConditionalSelect(inside, sinOverRadius * right, noDirection);
+            dy = Vector.ConditionalSelect(inside, sinOverRadius * upVector, noDirection);
+            dz = Vector.ConditionalSelect(inside, cosine, noDirection);
         }
     }
 }

@@ -1,5 +1,4 @@
 using System.Numerics;
-using System.Runtime.InteropServices;
 using Lightward.Spacetime;
 
 namespace Lightward.Rendering.Projections;
@@ -67,30 +66,21 @@ public sealed class EquirectangularProjection : Projection
         radianceScale = Vector<float>.One / Vector.Max(cosLatitude, new Vector<float>(_latitudePerPixel / 2));
     }
 
-    public override void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz)
+    public override void UnprojectRow(int row, int firstColumn, Span<float> dx, Span<float> dy, Span<float> dz)
     {
-        float latitude = (_centreY - (row + 0.5f)) * _latitudePerPixel;
-        (float sinLatitude, float cosLatitude) = MathF.SinCos(latitude);
-        var cosLatitudeVector = new Vector<float>(cosLatitude);
-        var sinLatitudeVector = new Vector<float>(sinLatitude);
-        var longitudePerPixel = new Vector<float>(_longitudePerPixel);
-        var step = new Vector<float>(Vector<float>.Count);
-        Vector<float> columnOffset = PixelCentreOffsets(0, _centreX);
-        int vectorCount = Width / Vector<float>.Count;
-        Span<Vector<float>> outX = MemoryMarshal.Cast<float, Vector<float>>(dx), outY = MemoryMarshal.Cast<float, Vector<float>>(dy), outZ = MemoryMarshal.Cast<float, Vector<float>>(dz);
-        for (int i = 0; i < vectorCount; i++, columnOffset += step)
+        (float sinLatitude, float cosLatitude) = MathF.SinCos((_centreY - (row + 0.5f)) * _latitudePerPixel);
+        UnprojectRun(new RowUnprojection(_centreX, _longitudePerPixel, sinLatitude, cosLatitude), firstColumn, dx, dy, dz);
+    }
+
+    /// <summary>A row of the map: one latitude, each pixel's longitude proportional to its column centre's offset.</summary>
+    private readonly struct RowUnprojection(float centreX, float longitudePerPixel, float sinLatitude, float cosLatitude) : IRowUnprojection
+    {
+        public void Unproject(int firstColumn, out Vector<float> dx, out Vector<float> dy, out Vector<float> dz)
         {
-            (Vector<float> sinLongitude, Vector<float> cosLongitude) = Vector.SinCos(columnOffset * longitudePerPixel);
-            outX[i] = cosLatitudeVector * sinLongitude;
-            outY[i] = sinLatitudeVector;
-            outZ[i] = cosLatitudeVector * cosLongitude;
-        }
-        for (int column = vectorCount * Vector<float>.Count; column < Width; column++)
-        {
-            (float sinLongitude, float cosLongitude) = MathF.SinCos((column + 0.5f - _centreX) * _longitudePerPixel);
-            dx[column] = cosLatitude * sinLongitude;
-            dy[column] = sinLatitude;
-            dz[column] = cosLatitude * cosLongitude;
+            (Vector<float> sinLongitude, Vector<float> cosLongitude) = Vector.SinCos(PixelCentreOffsets(firstColumn, centreX) * new Vector<float>(longitudePerPixel));
+            dx = new Vector<float>(cosLatitude) * sinLongitude;
+            dy = new Vector<float>(sinLatitude);
+            dz = new Vector<float>(cosLatitude) * cosLongitude;
         }
     }
 }

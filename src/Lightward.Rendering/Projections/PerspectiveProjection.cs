@@ -96,29 +96,19 @@ public sealed class PerspectiveProjection : Projection
         }
     }
 
-    public override void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz)
+    public override void UnprojectRow(int row, int firstColumn, Span<float> dx, Span<float> dy, Span<float> dz) =>
+        UnprojectRun(new RowUnprojection(_centreX, -(row + 0.5f - _centreY) / _focal, 1 / _focal), firstColumn, dx, dy, dz);
+
+    /// <summary>A row of the flat screen: (right, up, 1) normalised, with right = (column centre − cx)/f and up fixed for the row.</summary>
+    private readonly struct RowUnprojection(float centreX, float up, float inverseFocal) : IRowUnprojection
     {
-        float inverseFocal = 1 / _focal;
-        float up = -(row + 0.5f - _centreY) * inverseFocal;
-        var upVector = new Vector<float>(up);
-        var step = new Vector<float>(Vector<float>.Count * inverseFocal);
-        Vector<float> right = PixelCentreOffsets(0, _centreX) * new Vector<float>(inverseFocal);
-        int vectorCount = Width / Vector<float>.Count;
-        Span<Vector<float>> outX = MemoryMarshal.Cast<float, Vector<float>>(dx), outY = MemoryMarshal.Cast<float, Vector<float>>(dy), outZ = MemoryMarshal.Cast<float, Vector<float>>(dz);
-        for (int i = 0; i < vectorCount; i++, right += step)
+        public void Unproject(int firstColumn, out Vector<float> dx, out Vector<float> dy, out Vector<float> dz)
         {
+            Vector<float> right = PixelCentreOffsets(firstColumn, centreX) * new Vector<float>(inverseFocal), upVector = new(up);
             Vector<float> inverseLength = Vector<float>.One / Vector.SquareRoot(right * right + upVector * upVector + Vector<float>.One);
-            outX[i] = right * inverseLength;
-            outY[i] = upVector * inverseLength;
-            outZ[i] = inverseLength;
-        }
-        for (int column = vectorCount * Vector<float>.Count; column < Width; column++)
-        {
-            float across = (column + 0.5f - _centreX) * inverseFocal;
-            float inverseLength = 1 / MathF.Sqrt(across * across + up * up + 1);
-            dx[column] = across * inverseLength;
-            dy[column] = up * inverseLength;
-            dz[column] = inverseLength;
+            dx = right * inverseLength;
+            dy = upVector * inverseLength;
+            dz = inverseLength;
         }
     }
 }

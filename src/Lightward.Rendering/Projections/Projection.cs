@@ -1,4 +1,5 @@
 using System.Numerics;
+using System.Runtime.InteropServices;
 using Lightward.Spacetime;
 
 namespace Lightward.Rendering.Projections;
@@ -90,8 +91,38 @@ public abstract class Projection
         }
     }
 
-    /// <summary>Unit directions (camera axes) through the centres of one row's pixels; NaN where the image shows no direction.</summary>
-    public abstract void UnprojectRow(int row, Span<float> dx, Span<float> dy, Span<float> dz);
+    /// <summary>
+    /// Unit directions (camera axes) through the centres of pixels [<paramref name="firstColumn"/>,
+    /// <paramref name="firstColumn"/> + <paramref name="dx"/>.Length) of a row; NaN where the image shows no direction.
+    /// Each pixel's value depends only on its own column, so any run of a row gives the same values as the whole row.
+    /// </summary>
+    public abstract void UnprojectRow(int row, int firstColumn, Span<float> dx, Span<float> dy, Span<float> dz);
+
+    /// <summary>One row's unprojection, a vector of neighbouring pixels at a time (with whatever the row shares worked out once).</summary>
+    protected interface IRowUnprojection
+    {
+        /// <summary>Directions through the centres of columns <paramref name="firstColumn"/>, <paramref name="firstColumn"/> + 1, … (one per lane).</summary>
+        void Unproject(int firstColumn, out Vector<float> dx, out Vector<float> dy, out Vector<float> dz);
+    }
+
+    /// <summary>
+    /// Runs <paramref name="unprojection"/> over a run of a row, the last partial vector too, so that every pixel
+    /// goes through the same arithmetic wherever the run starts and ends.
+    /// </summary>
+    protected static void UnprojectRun<TRow>(in TRow unprojection, int firstColumn, Span<float> dx, Span<float> dy, Span<float> dz)
+        where TRow : struct, IRowUnprojection
+    {
+        int lanes = Vector<float>.Count, whole = dx.Length / lanes;
+        Span<Vector<float>> outX = MemoryMarshal.Cast<float, Vector<float>>(dx), outY = MemoryMarshal.Cast<float, Vector<float>>(dy), outZ = MemoryMarshal.Cast<float, Vector<float>>(dz);
+        for (int i = 0; i < whole; i++) unprojection.Unproject(firstColumn + i * lanes, out outX[i], out outY[i], out outZ[i]);
+        int done = whole * lanes, rest = dx.Length - done;
+        if (rest == 0) return;
+        unprojection.Unproject(firstColumn + done, out Vector<float> x, out Vector<float> y, out Vector<float> z);
+        Span<float> lanesOut = stackalloc float[lanes];
+        x.CopyTo(lanesOut); lanesOut[..rest].CopyTo(dx[done..]);
+        y.CopyTo(lanesOut); lanesOut[..rest].CopyTo(dy[done..]);
+        z.CopyTo(lanesOut); lanesOut[..rest].CopyTo(dz[done..]);
+    }
 
     /// <summary>True when (x, y) lies within the kept margin around the image.</summary>
     protected bool WithinMargin(float x, float y) =>
@@ -102,11 +133,14 @@ public abstract class Projection
         Vector.GreaterThanOrEqual(x, new Vector<float>(-StarMargin)) & Vector.LessThanOrEqual(x, new Vector<float>(Width + StarMargin))
         & Vector.GreaterThanOrEqual(y, new Vector<float>(-StarMargin)) & Vector.LessThanOrEqual(y, new Vector<float>(Height + StarMargin));
 
-    /// <summary>The x coordinates of one row's pixel centres relative to <paramref name="centreX"/>, for the vectorised row loops.</summary>
-    protected static Vector<float> PixelCentreOffsets(int firstColumn, float centreX)
-    {
-        Span<float> lanes = stackalloc float[Vector<float>.Count];
-        for (int lane = 0; lane < lanes.Length; lane++) lanes[lane] = firstColumn + lane + 0.5f - centreX;
-        return new Vector<float>(lanes);
-    }
+    /// <summary>0, 1, 2, …: the lane numbers of a vector.</summary>
+    private static readonly Vector<int> LaneNumbers = Vector<int>.Indices;
+
+    /// <summary>
+    /// The x coordinates of the pixel centres of columns <paramref name="firstColumn"/>… relative to
+    /// <paramref name="centreX"/>, for the vectorised row loops: per lane (column + ½) − centreX, rounded as the scalar
+    /// expression <c>column + 0.5f - centreX</c> is.
+    /// </summary>
+    protected static Vector<float> PixelCentreOffsets(int firstColumn, float centreX) =>
+        Vector.ConvertToSingle(new Vector<int>(firstColumn) + LaneNumbers) + new Vector<float>(0.5f) - new Vector<float>(centreX);
 }
