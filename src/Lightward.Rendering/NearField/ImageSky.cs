@@ -20,17 +20,26 @@ public sealed class ImageSky
         int width = projection.Width, height = projection.Height;
         _firstColumn = new int[height];
         _lastColumn = new int[height];
-        float[] x = new float[width], y = new float[width], z = new float[width];
+        Vec3 centre = MiddleDirection(projection);
+        // Per row, the largest squared chord from the centre to a pixel's direction (every other row and column).
+        var farthest = new double[height];
+        Parallel.For(0, height, () => new RowBuffer(width), (row, _, buffer) =>
+        {
+            projection.UnprojectRow(row, 0, buffer.X, buffer.Y, buffer.Z);
+            (_firstColumn[row], _lastColumn[row]) = SkyRun(buffer.X);
+            if (row % 2 == 0) farthest[row] = FarthestChordSquared(centre, buffer);
+            return buffer;
+        }, _ => { });
         for (int row = 0; row < height; row++)
         {
-            projection.UnprojectRow(row, 0, x, y, z);
-            int first = Array.FindIndex(x, v => !float.IsNaN(v)), last = Array.FindLastIndex(x, v => !float.IsNaN(v));
-            if (first >= 0 && Array.FindIndex(x, first, last - first + 1, float.IsNaN) >= 0)
+            if (_lastColumn[row] == int.MinValue)
                 throw new ArgumentException($"row {row} of the projection shows the sky in more than one run", nameof(projection));
-            (_firstColumn[row], _lastColumn[row]) = first >= 0 ? (first, last) : (width, -1);
-            HasBlankPixels |= first != 0 || last != width - 1;
+            HasBlankPixels |= _firstColumn[row] != 0 || _lastColumn[row] != width - 1;
         }
-        View = Cone(projection, x, y, z);
+        // The farthest pixel lies on the image's border or on the edge of a dome's disc; a stride of 2 misses at most a
+        // pixel's angle. A chord c spans the angle 2 asin(c/2), well conditioned for the narrowest scope views too.
+        double radius = 2 * Math.Asin(Math.Min(1, Math.Sqrt(farthest.Max()) / 2));
+        View = new ViewCap(centre, Math.Min(Math.PI, radius + 0.01));
     }
 
     public Projection Projection { get; }
@@ -44,20 +53,42 @@ public sealed class ImageSky
     /// <summary>The columns of row <paramref name="row"/> that show the sky: [first, last], empty when first &gt; last.</summary>
     public (int First, int Last) SkyColumns(int row) => (_firstColumn[row], _lastColumn[row]);
 
-    /// <summary>Centred on the middle pixel, reaching the farthest pixel (using <paramref name="x"/>… as a row buffer).</summary>
-    private static ViewCap Cone(Projection projection, float[] x, float[] y, float[] z)
+    private sealed class RowBuffer(int width)
     {
-        int width = projection.Width, height = projection.Height;
-        projection.UnprojectRow(height / 2, 0, x, y, z);
-        Vec3 centre = new Vec3(x[width / 2], y[width / 2], z[width / 2]).NormalizedOr(Vec3.UnitZ);
-        double radius = 0;
-        // The farthest pixel lies on the image's border or on the edge of a dome's disc; a stride of 2 misses at most a pixel's angle.
-        for (int row = 0; row < height; row += 2)
+        public readonly float[] X = new float[width], Y = new float[width], Z = new float[width];
+    }
+
+    /// <summary>The direction through the middle pixel, the cone's axis.</summary>
+    private static Vec3 MiddleDirection(Projection projection)
+    {
+        var buffer = new RowBuffer(projection.Width);
+        projection.UnprojectRow(projection.Height / 2, 0, buffer.X, buffer.Y, buffer.Z);
+        int middle = projection.Width / 2;
+        return new Vec3(buffer.X[middle], buffer.Y[middle], buffer.Z[middle]).NormalizedOr(Vec3.UnitZ);
+    }
+
+    /// <summary>First and last columns whose direction exists (not NaN); (width, −1) when none does, last = int.MinValue when they are not one run.</summary>
+    private static (int First, int Last) SkyRun(ReadOnlySpan<float> x)
+    {
+        int first = 0, last = x.Length - 1;
+        while (first < x.Length && float.IsNaN(x[first])) first++;
+        if (first == x.Length) return (x.Length, -1);
+        while (float.IsNaN(x[last])) last--;
+        for (int column = first; column <= last; column++)
+            if (float.IsNaN(x[column])) return (first, int.MinValue);
+        return (first, last);
+    }
+
+    /// <summary>The largest squared chord between <paramref name="centre"/> and the directions in the even columns of a row.</summary>
+    private static double FarthestChordSquared(Vec3 centre, RowBuffer row)
+    {
+        double farthest = 0;
+        for (int column = 0; column < row.X.Length; column += 2)
         {
-            projection.UnprojectRow(row, 0, x, y, z);
-            for (int column = 0; column < width; column += 2)
-                if (!float.IsNaN(x[column])) radius = Math.Max(radius, Vec3.AngleBetween(centre, new Vec3(x[column], y[column], z[column])));
+            if (float.IsNaN(row.X[column])) continue;
+            double dx = row.X[column] - centre.X, dy = row.Y[column] - centre.Y, dz = row.Z[column] - centre.Z;
+            farthest = Math.Max(farthest, dx * dx + dy * dy + dz * dz);
         }
-        return new ViewCap(centre, Math.Min(Math.PI, radius + 0.01));
+        return farthest;
     }
 }
