@@ -56,7 +56,7 @@ public sealed class CosmicBackgroundPainter
         _motion = new Vector3((float)motion.X, (float)motion.Y, (float)motion.Z);
 
         if (!Tabulate(velocity, projection.ReferencePixelSolidAngle)) return false;
-        Parallel.For(0, BandCount(frame), parallel, _paintBand);
+        ParallelItems.For(0, BandCount(frame), parallel, _paintBand);
         return true;
     }
 
@@ -64,7 +64,7 @@ public sealed class CosmicBackgroundPainter
     public void Clear(HdrFrame frame, ParallelOptions parallel)
     {
         _frame = frame;
-        Parallel.For(0, BandCount(frame), parallel, _clearBand);
+        ParallelItems.For(0, BandCount(frame), parallel, _clearBand);
     }
 
     private static int BandCount(HdrFrame frame) => (frame.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight;

@@ -21,7 +21,7 @@ public sealed class FrameRenderer
     private readonly ExposureMeter _meter = new();
     private readonly ParallelOptions _parallel;
     private readonly Func<HdrFrame> _rentBandBuffer;
-    private readonly Func<int, ParallelLoopState, HdrFrame, HdrFrame> _compositeAndToneMapBand;
+    private readonly Func<int, HdrFrame, HdrFrame> _compositeAndToneMapBand;
     private readonly Action<HdrFrame> _returnBandBuffer;
     /// <summary>Band-sized HDR buffers, one per thread of the composite-and-tone-map pass: all zero and unmarked between bands.</summary>
     private readonly Stack<HdrFrame> _bandBuffers = new();
@@ -183,7 +183,7 @@ public sealed class FrameRenderer
         frame.Image.LitGroupsKnown = false; // until every band is written
         try
         {
-            Parallel.For(0, (frame.Hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, _parallel,
+            ParallelItems.For(0, (frame.Hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, _parallel,
                 _rentBandBuffer, _compositeAndToneMapBand, _returnBandBuffer);
         }
         catch
@@ -197,7 +197,7 @@ public sealed class FrameRenderer
         frame.Image.LitGroupsKnown = markedOnly;
     }
 
-    private unsafe HdrFrame CompositeAndToneMapBand(int band, ParallelLoopState _, HdrFrame buffer)
+    private unsafe HdrFrame CompositeAndToneMapBand(int band, HdrFrame buffer)
     {
         FrameContext frame = _frame!;
         HdrFrame hdr = frame.Hdr;

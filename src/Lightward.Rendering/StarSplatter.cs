@@ -107,7 +107,7 @@ public sealed class StarSplatter
         _chunkSize = Math.Clamp((stars.Count / ChunksPerPass + Vector<float>.Count) & -Vector<float>.Count, MinChunkSize, MaxChunkSize);
         int chunks = (stars.Count + _chunkSize - 1) / _chunkSize;
         if (_chunkLevels.Length < chunks) _chunkLevels = [.. _chunkLevels, .. Enumerable.Range(0, chunks - _chunkLevels.Length).Select(_ => new LevelHistogram())];
-        Parallel.For(0, chunks, parallel, _projectChunk);
+        ParallelItems.For(0, chunks, parallel, _projectChunk);
         StarLevels.Clear();
         for (int chunk = 0; chunk < chunks; chunk++) StarLevels.Add(_chunkLevels[chunk]);
     }
@@ -117,7 +117,7 @@ public sealed class StarSplatter
     {
         Bin(frame.Width, frame.Height, exposureScale, parallel);
         _frame = frame;
-        Parallel.For(0, _bandCount, parallel, _splatBandIntoFrame);
+        ParallelItems.For(0, _bandCount, parallel, _splatBandIntoFrame);
     }
 
     /// <summary>
@@ -132,7 +132,7 @@ public sealed class StarSplatter
         _image = image;
         _litKnown = image.LitGroupsKnown;
         image.LitGroupsKnown = false; // until every band is written
-        Parallel.For(0, _bandCount, parallel, _splatBandIntoImage);
+        ParallelItems.For(0, _bandCount, parallel, _splatBandIntoImage);
         image.LitGroupsKnown = true;
     }
 
@@ -401,9 +401,9 @@ public sealed class StarSplatter
         int chunks = (_stars.Count + _chunkSize - 1) / _chunkSize;
         if (_chunkTileCursor.Length < chunks * _tileCount) _chunkTileCursor = new int[chunks * _tileCount];
         Array.Clear(_chunkTileCursor, 0, chunks * _tileCount);
-        Parallel.For(0, chunks, parallel, _assignChunk);
+        ParallelItems.For(0, chunks, parallel, _assignChunk);
         PlaceTiles(chunks);
-        Parallel.For(0, chunks, parallel, _fillChunk);
+        ParallelItems.For(0, chunks, parallel, _fillChunk);
     }
 
     private TileBounds Tile(int band, int tileColumn)

@@ -58,7 +58,7 @@ public sealed class GridImager
         (Vec3 From, Vec3 To)[] lines = grid.LinesAround(_camera).ToArray();
         int chunkCount = (lines.Length + LinesPerChunk - 1) / LinesPerChunk;
         while (_chunks.Count < chunkCount) _chunks.Add([]);
-        Parallel.For(0, chunkCount, parallel, chunk =>
+        ParallelItems.For(0, chunkCount, parallel, chunk =>
         {
             List<PixelSegment> segments = _chunks[chunk];
             segments.Clear();

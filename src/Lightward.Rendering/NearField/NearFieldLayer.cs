@@ -85,7 +85,7 @@ public sealed class NearFieldLayer : IFrameLayer
     public void Draw(HdrFrame hdr, Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel, float exposureScale = 1)
     {
         Rasterize(projection, ship, cameraToShip, parallel);
-        Parallel.For(0, (hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, parallel, band =>
+        ParallelItems.For(0, (hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, parallel, band =>
             Composite(new HdrBand(hdr, 0, band * StarSplatter.BandHeight, Math.Min(hdr.Height, (band + 1) * StarSplatter.BandHeight)), exposureScale));
     }
 
@@ -118,12 +118,12 @@ public sealed class NearFieldLayer : IFrameLayer
         Projection projection = rasterizer.Projection;
         double pixelsPerRadian = PixelScaleMargin / Math.Sqrt(projection.ReferencePixelSolidAngle);
         foreach (BodyImager imager in _imagers) imager.Begin(ship, cameraToShip, projection.ReferencePixelSolidAngle);
-        Parallel.For(0, _faceChunks.Length, parallel, k =>
+        ParallelItems.For(0, _faceChunks.Length, parallel, k =>
         {
             (int body, int chunk) = _faceChunks[k];
             if (_imagers[body].IsSeen) _imagers[body].FindFrontFaces(chunk);
         });
-        Parallel.For(0, _pointChunks.Length, parallel, k =>
+        ParallelItems.For(0, _pointChunks.Length, parallel, k =>
         {
             (int body, int chunk) = _pointChunks[k];
             if (_imagers[body].IsSeen) _imagers[body].SeePoints(chunk);
@@ -131,7 +131,7 @@ public sealed class NearFieldLayer : IFrameLayer
         for (int i = 0; i < _imagers.Length; i++) _views[i] = new BodyView(_imagers[i].Body, _imagers[i].IsSeen ? _imagers[i].Appearance() : null);
         rasterizer.Clear(parallel);
         rasterizer.BeginParts(_faceChunks.Length);
-        Parallel.For(0, _faceChunks.Length, parallel, k =>
+        ParallelItems.For(0, _faceChunks.Length, parallel, k =>
         {
             (int body, int chunk) = _faceChunks[k];
             List<SkyTriangle> triangles = _chunkTriangles[k];

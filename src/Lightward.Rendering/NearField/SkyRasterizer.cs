@@ -58,7 +58,7 @@ public sealed class SkyRasterizer
     private readonly LevelHistogram[] _bandLevels;
     private bool _filled;
     private readonly Func<BandDirections> _rentDirections;
-    private readonly Func<int, ParallelLoopState, BandDirections, BandDirections> _fillBand;
+    private readonly Func<int, BandDirections, BandDirections> _fillBand;
     private readonly Action<BandDirections> _returnDirections;
     /// <summary>Band-sized direction buffers, one per thread of the fill.</summary>
     private readonly Stack<BandDirections> _bandDirections = new();
@@ -140,7 +140,7 @@ public sealed class SkyRasterizer
         _filled = false;
         _drawnTiles = DrawnTiles();
         if (_drawnTiles.FirstRow > _drawnTiles.LastRow) return;
-        Parallel.For(0, _bandCount, parallel, _rentDirections, _fillBand, _returnDirections);
+        ParallelItems.For(0, _bandCount, parallel, _rentDirections, _fillBand, _returnDirections);
         _filled = true;
     }
 
@@ -169,7 +169,7 @@ public sealed class SkyRasterizer
     /// <summary>Empties the layer (only the tiles drawn since the last clear) for the next frame.</summary>
     public void Clear(ParallelOptions parallel)
     {
-        Parallel.For(_drawnTiles.FirstRow, _drawnTiles.LastRow + 1, parallel, tileRow =>
+        ParallelItems.For(_drawnTiles.FirstRow, _drawnTiles.LastRow + 1, parallel, tileRow =>
         {
             var clear = new ClearRun(_pixels);
             ForEachDirtyRun(tileRow * TileSize, Math.Min(Height, (tileRow + 1) * TileSize), ref clear);
@@ -427,7 +427,7 @@ public sealed class SkyRasterizer
         lock (_bandDirections) _bandDirections.Push(directions);
     }
 
-    private unsafe BandDirections FillBand(int band, ParallelLoopState _, BandDirections directions)
+    private unsafe BandDirections FillBand(int band, BandDirections directions)
     {
         int top = band * BandRows, bottom = Math.Min(Height, top + BandRows) - 1;
         // Only the drawn tiles' directions: every pixel a triangle searches lies in one.
