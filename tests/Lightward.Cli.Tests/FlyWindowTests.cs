@@ -40,11 +40,15 @@ public class FlyWindowTests
         Assert.Equal(1, root.GetProperty("throttle").GetDouble());
         Assert.True(root.GetProperty("rapidity").GetDouble() > 0);
         // The demo starts with the nose on home +X and the right wing on home +Y: a yaw to the right swings the
-        // nose toward +Y, and the engine pushed the ship along where the nose pointed.
+        // nose toward +Y, and the engine pushed the ship along where the nose pointed. How far the nose swings
+        // depends on when the window saw the key go up (a loaded machine sees it later), so the motion is checked
+        // against the final nose, not against a fixed direction: the turn ends early in a long burn, so the velocity
+        // lags the nose by only a degree or so (5° allowed: our own margin, no source).
         double[] forward = root.GetProperty("forward").EnumerateArray().Select(v => v.GetDouble()).ToArray();
         double[] motion = root.GetProperty("velocity_direction").EnumerateArray().Select(v => v.GetDouble()).ToArray();
         Assert.True(forward[1] > 0.01, $"nose did not swing right: {string.Join(", ", forward)}");
-        Assert.True(motion[0] > 0.9, $"ship did not move along its nose: {string.Join(", ", motion)}");
+        double alongNose = forward.Zip(motion, (f, m) => f * m).Sum();
+        Assert.True(alongNose > Math.Cos(5 * Math.PI / 180), $"ship did not move along its nose: nose {string.Join(", ", forward)}, motion {string.Join(", ", motion)}");
 
         RgbaImage shot = PngWriter.Read(Path.Combine(folder, "shot.png"));
         Assert.Equal((640, 360), (shot.Width, shot.Height));
