@@ -40,7 +40,6 @@ public sealed class SkyRasterizer
     private const double SmallBox = 16;
 
     private readonly ImageSky _sky;
-    private readonly ViewCap _view;
     /// <summary>The layer, row-major: premultiplied surface colour, coverage, and the emission distance of the nearest surface (+∞ where none).</summary>
     private readonly SurfacePlanes _pixels;
     private readonly int _tileColumns, _tileRows;
@@ -66,7 +65,6 @@ public sealed class SkyRasterizer
     public SkyRasterizer(ImageSky sky)
     {
         _sky = sky;
-        _view = sky.View;
         _pixels = new SurfacePlanes(Width * Height);
         _tileColumns = (Width + TileSize - 1) / TileSize;
         _tileRows = (Height + TileSize - 1) / TileSize;
@@ -112,7 +110,7 @@ public sealed class SkyRasterizer
     public ImageSky Sky => _sky;
 
     /// <summary>The cone of directions the image shows.</summary>
-    public ViewCap View => _view;
+    public ViewCap View => _sky.View;
 
     /// <summary>
     /// Starts drawing <paramref name="partCount"/> parts of triangles into the (cleared) layer: each part is prepared
@@ -271,7 +269,7 @@ public sealed class SkyRasterizer
         double halfChord = Math.Min(1, Math.Sqrt(Math.Max((a - b).LengthSquared, Math.Max((b - c).LengthSquared, (c - a).LengthSquared))) / 2);
         Vec3 centre = (a + b + c).NormalizedOr(a);
         // Every point of the triangle lies within its diameter of the centroid direction.
-        if (_view.Misses(centre, halfChord)) return;
+        if (View.Misses(centre, halfChord)) return;
         double diameter = 2 * Math.Asin(halfChord);
         Projection projection = Projection;
         bool onA = ImagePlacement.TryPlace(projection, a, out double ax, out double ay);
