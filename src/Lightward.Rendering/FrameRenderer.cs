@@ -20,11 +20,9 @@ public sealed class FrameRenderer
     private readonly CosmicBackgroundPainter _background = new();
     private readonly ExposureMeter _meter = new();
     private readonly ParallelOptions _parallel;
-    private readonly Func<HdrFrame> _rentBandBuffer;
     private readonly Func<int, HdrFrame, HdrFrame> _compositeAndToneMapBand;
-    private readonly Action<HdrFrame> _returnBandBuffer;
-    /// <summary>Band-sized HDR buffers, one per thread of the composite-and-tone-map pass: all zero and unmarked between bands.</summary>
-    private readonly Stack<HdrFrame> _bandBuffers = new();
+    /// <summary>Band-sized HDR buffers of the frame's width, one per thread of the composite-and-tone-map pass: all zero and unmarked between bands.</summary>
+    private readonly ScratchPool<HdrFrame> _bandBuffers;
     private FrameContext? _frame;
     private Camera? _projectionCamera;
     private Projection? _projection;
@@ -39,9 +37,8 @@ public sealed class FrameRenderer
     public FrameRenderer(int maxThreads = -1)
     {
         _parallel = new ParallelOptions { MaxDegreeOfParallelism = maxThreads };
-        _rentBandBuffer = RentBandBuffer;
+        _bandBuffers = new ScratchPool<HdrFrame>(() => new HdrFrame(_frame!.Hdr.Width, StarSplatter.BandHeight), buffer => buffer.Width == _frame!.Hdr.Width);
         _compositeAndToneMapBand = CompositeAndToneMapBand;
-        _returnBandBuffer = ReturnBandBuffer;
     }
 
     /// <summary>HDR layers drawn in order after the stars (bodies, the grid of space).</summary>
@@ -184,12 +181,12 @@ public sealed class FrameRenderer
         try
         {
             ParallelItems.For(0, (frame.Hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, _parallel,
-                _rentBandBuffer, _compositeAndToneMapBand, _returnBandBuffer);
+                _bandBuffers.Rent, _compositeAndToneMapBand, _bandBuffers.Return);
         }
         catch
         {
             // A band that failed half way may have left light in its buffer.
-            lock (_bandBuffers) _bandBuffers.Clear();
+            _bandBuffers.Clear();
             throw;
         }
         frame.Hdr.WhollyTouched = false;
@@ -212,20 +209,5 @@ public sealed class FrameRenderer
             ToneMapper.MapAndClearRows(rows.Buffer, frame.ExposureScale, (uint*)pixels + (long)rows.Origin * hdr.Width, lit + rows.Origin * image.LitEntriesPerRow,
                 _litKnown, firstRow - rows.Origin, endRow - rows.Origin);
         return buffer;
-    }
-
-    /// <summary>A band buffer for one thread of the pass, of the frame's width.</summary>
-    private HdrFrame RentBandBuffer()
-    {
-        int width = _frame!.Hdr.Width;
-        lock (_bandBuffers)
-            while (_bandBuffers.TryPop(out HdrFrame? buffer))
-                if (buffer.Width == width) return buffer;
-        return new HdrFrame(width, StarSplatter.BandHeight);
-    }
-
-    private void ReturnBandBuffer(HdrFrame buffer)
-    {
-        lock (_bandBuffers) _bandBuffers.Push(buffer);
     }
 }

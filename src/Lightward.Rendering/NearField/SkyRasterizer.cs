@@ -56,11 +56,9 @@ public sealed class SkyRasterizer
     /// <summary>Per row band, the brightness of its surfaces, counted as the band is filled (see <see cref="AddSurfaceLevels"/>).</summary>
     private readonly LevelHistogram[] _bandLevels;
     private bool _filled;
-    private readonly Func<BandDirections> _rentDirections;
     private readonly Func<int, BandDirections, BandDirections> _fillBand;
-    private readonly Action<BandDirections> _returnDirections;
     /// <summary>Band-sized direction buffers, one per thread of the fill.</summary>
-    private readonly Stack<BandDirections> _bandDirections = new();
+    private readonly ScratchPool<BandDirections> _bandDirections;
 
     public SkyRasterizer(ImageSky sky)
     {
@@ -73,9 +71,8 @@ public sealed class SkyRasterizer
         _smallBox = Math.Min(SmallBox, Math.Min(Width, Height) / 4.0);
         _bandCount = (Height + BandRows - 1) / BandRows;
         _bandLevels = Enumerable.Range(0, _bandCount).Select(_ => new LevelHistogram()).ToArray();
-        _rentDirections = RentDirections;
+        _bandDirections = new ScratchPool<BandDirections>(() => new BandDirections(Width));
         _fillBand = FillBand;
-        _returnDirections = ReturnDirections;
     }
 
     public Projection Projection => _sky.Projection;
@@ -138,7 +135,7 @@ public sealed class SkyRasterizer
         _filled = false;
         _drawnTiles = DrawnTiles();
         if (_drawnTiles.FirstRow > _drawnTiles.LastRow) return;
-        ParallelItems.For(0, _bandCount, parallel, _rentDirections, _fillBand, _returnDirections);
+        ParallelItems.For(0, _bandCount, parallel, _bandDirections.Rent, _fillBand, _bandDirections.Return);
         _filled = true;
     }
 
@@ -411,18 +408,6 @@ public sealed class SkyRasterizer
             int width = projection.Width, column = start - row * width, at = (row - top) * width + column;
             projection.UnprojectRow(row, column, directions.X.AsSpan(at, end - start), directions.Y.AsSpan(at, end - start), directions.Z.AsSpan(at, end - start));
         }
-    }
-
-    private BandDirections RentDirections()
-    {
-        lock (_bandDirections)
-            if (_bandDirections.TryPop(out BandDirections? directions)) return directions;
-        return new BandDirections(Width);
-    }
-
-    private void ReturnDirections(BandDirections directions)
-    {
-        lock (_bandDirections) _bandDirections.Push(directions);
     }
 
     private unsafe BandDirections FillBand(int band, BandDirections directions)
