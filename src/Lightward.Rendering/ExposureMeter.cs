@@ -1,3 +1,6 @@
+using System.Numerics;
+using System.Runtime.Intrinsics;
+
 namespace Lightward.Rendering;
 
 /// <summary>
@@ -97,6 +100,7 @@ public sealed class LevelHistogram
     /// <summary>Adds every level counted in <paramref name="other"/>.</summary>
     public void Add(LevelHistogram other)
     {
+        if (other.Count == 0) return;
         for (int bin = 0; bin < _bins.Length; bin++) _bins[bin] += other._bins[bin];
         Count += other.Count;
     }
@@ -112,6 +116,12 @@ public sealed class LevelHistogram
         if (!(level > 0)) return;
         _bins[Math.Min(BitConverter.SingleToInt32Bits(level) >> BinShift, _bins.Length - 1)]++;
         Count++;
+    }
+
+    /// <summary>Adds the levels of the lanes whose bits are set in <paramref name="lanes"/> (bit i: lane i).</summary>
+    public void Add(Vector256<float> levels, uint lanes)
+    {
+        for (; lanes != 0; lanes &= lanes - 1) Add(levels.GetElement(BitOperations.TrailingZeroCount(lanes)));
     }
 
     /// <summary>The level of the bin where the count from the bright end first reaches <paramref name="count"/> (0 when it never does).</summary>

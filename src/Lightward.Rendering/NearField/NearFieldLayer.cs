@@ -129,7 +129,7 @@ public sealed class NearFieldLayer : IFrameLayer
             if (_imagers[body].IsSeen) _imagers[body].SeePoints(chunk);
         });
         for (int i = 0; i < _imagers.Length; i++) _views[i] = new BodyView(_imagers[i].Body, _imagers[i].IsSeen ? _imagers[i].Appearance() : null);
-        rasterizer.Clear(parallel);
+        rasterizer.Clear();
         rasterizer.BeginParts(_faceChunks.Length);
         ParallelItems.For(0, _faceChunks.Length, parallel, k =>
         {

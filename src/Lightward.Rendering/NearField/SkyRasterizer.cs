@@ -44,11 +44,15 @@ public sealed class SkyRasterizer
     private readonly SurfacePlanes _pixels;
     private readonly int _tileColumns, _tileRows;
     private readonly double _smallBox;
-    private readonly bool[] _dirtyTiles;
+    private bool[] _dirtyTiles;
+    /// <summary>The tiles drawn before the last <see cref="Clear"/>, still to be emptied, and the range that holds them.</summary>
+    private bool[] _staleTiles;
+    private (int FirstColumn, int LastColumn, int FirstRow, int LastRow) _staleRange = NoTiles;
     /// <summary>Per tile row, how many drawn tiles lie left of each tile column (a row has one entry more than columns), kept from <see cref="FillParts"/> to <see cref="Clear"/>.</summary>
     private readonly int[] _drawnTilesBefore;
     /// <summary>The tile columns and rows that hold every drawn tile (empty when first &gt; last).</summary>
-    private (int FirstColumn, int LastColumn, int FirstRow, int LastRow) _drawnTiles = (0, -1, 0, -1);
+    private (int FirstColumn, int LastColumn, int FirstRow, int LastRow) _drawnTiles = NoTiles;
+    private static readonly (int FirstColumn, int LastColumn, int FirstRow, int LastRow) NoTiles = (0, -1, 0, -1);
     /// <summary>Per part of the triangles, those prepared (see <see cref="BeginParts"/>).</summary>
     private readonly List<PreparedPart> _parts = [];
     private int _partCount;
@@ -67,6 +71,7 @@ public sealed class SkyRasterizer
         _tileColumns = (Width + TileSize - 1) / TileSize;
         _tileRows = (Height + TileSize - 1) / TileSize;
         _dirtyTiles = new bool[_tileColumns * _tileRows];
+        _staleTiles = new bool[_tileColumns * _tileRows];
         _drawnTilesBefore = new int[(_tileColumns + 1) * _tileRows];
         _smallBox = Math.Min(SmallBox, Math.Min(Width, Height) / 4.0);
         _bandCount = (Height + BandRows - 1) / BandRows;
@@ -129,20 +134,21 @@ public sealed class SkyRasterizer
         output.SortIntoBands();
     }
 
-    /// <summary>Rasterises the prepared parts into the layer, in part order.</summary>
+    /// <summary>Rasterises the prepared parts into the layer, in part order, emptying each band of what was drawn before <see cref="Clear"/> first.</summary>
     public void FillParts(ParallelOptions parallel)
     {
         _filled = false;
         _drawnTiles = DrawnTiles();
-        if (_drawnTiles.FirstRow > _drawnTiles.LastRow) return;
+        if (_drawnTiles.FirstRow > _drawnTiles.LastRow && _staleRange.FirstRow > _staleRange.LastRow) return;
         ParallelItems.For(0, _bandCount, parallel, _bandDirections.Rent, _fillBand, _bandDirections.Return);
+        _staleRange = NoTiles;
         _filled = true;
     }
 
     /// <summary>
     /// Lays the layer over the rows of <paramref name="band"/>: surfaces hide what lies behind them in proportion to
-    /// their coverage, and the pixels they cover are marked touched. The depth buffer stays until <see cref="Clear"/>,
-    /// so lines drawn afterwards can pass behind or in front of the surfaces.
+    /// their coverage, and the pixels they cover are marked touched. The depth buffer stays until the next fill, so
+    /// lines drawn afterwards can pass behind or in front of the surfaces.
     /// </summary>
     public void CompositeOver(HdrBand band)
     {
@@ -161,16 +167,21 @@ public sealed class SkyRasterizer
         foreach (LevelHistogram band in _bandLevels) levels.Add(band);
     }
 
-    /// <summary>Empties the layer (only the tiles drawn since the last clear) for the next frame.</summary>
-    public void Clear(ParallelOptions parallel)
+    /// <summary>
+    /// Empties the layer for the next frame. Only the tiles drawn since the last clear need emptying, and the next
+    /// <see cref="FillParts"/> empties them band by band, each just before it fills the band, so that the band's
+    /// planes are in cache when its triangles are drawn.
+    /// </summary>
+    public void Clear()
     {
-        ParallelItems.For(_drawnTiles.FirstRow, _drawnTiles.LastRow + 1, parallel, tileRow =>
-        {
-            var clear = new ClearRun(_pixels);
-            ForEachDirtyRun(tileRow * TileSize, Math.Min(Height, (tileRow + 1) * TileSize), ref clear);
-        });
+        // Tiles still waiting from an earlier clear (no fill since) are emptied now.
+        var clear = new ClearRun(_pixels);
+        ForEachRun(_staleTiles, _staleRange, 0, Height, ref clear);
+        (_staleTiles, _dirtyTiles) = (_dirtyTiles, _staleTiles);
+        _staleRange = _drawnTiles;
         Array.Clear(_dirtyTiles);
-        _drawnTiles = (0, -1, 0, -1);
+        _drawnTiles = NoTiles;
+        _filled = false;
     }
 
     /// <summary>The smallest range of tile columns and rows holding every drawn tile; counts the drawn tiles before each column as it goes.</summary>
@@ -201,16 +212,21 @@ public sealed class SkyRasterizer
     }
 
     /// <summary>Calls <paramref name="action"/> for each run of drawn tiles in each of rows [<paramref name="firstRow"/>, <paramref name="endRow"/>), top to bottom.</summary>
-    private void ForEachDirtyRun<TAction>(int firstRow, int endRow, ref TAction action) where TAction : struct, IRunAction
+    private void ForEachDirtyRun<TAction>(int firstRow, int endRow, ref TAction action) where TAction : struct, IRunAction =>
+        ForEachRun(_dirtyTiles, _drawnTiles, firstRow, endRow, ref action);
+
+    /// <summary>Calls <paramref name="action"/> for each run of the marked <paramref name="tiles"/> (all within <paramref name="range"/>) in each of rows [<paramref name="firstRow"/>, <paramref name="endRow"/>), top to bottom.</summary>
+    private void ForEachRun<TAction>(bool[] tiles, (int FirstColumn, int LastColumn, int FirstRow, int LastRow) range, int firstRow, int endRow, ref TAction action)
+        where TAction : struct, IRunAction
     {
-        for (int tileRow = Math.Max(firstRow / TileSize, _drawnTiles.FirstRow); tileRow * TileSize < endRow && tileRow <= _drawnTiles.LastRow; tileRow++)
+        for (int tileRow = Math.Max(firstRow / TileSize, range.FirstRow); tileRow * TileSize < endRow && tileRow <= range.LastRow; tileRow++)
         {
             int rowStart = tileRow * _tileColumns;
-            for (int tile = _drawnTiles.FirstColumn; tile <= _drawnTiles.LastColumn;)
+            for (int tile = range.FirstColumn; tile <= range.LastColumn;)
             {
-                if (!_dirtyTiles[rowStart + tile]) { tile++; continue; }
+                if (!tiles[rowStart + tile]) { tile++; continue; }
                 int runEnd = tile + 1;
-                while (runEnd <= _drawnTiles.LastColumn && _dirtyTiles[rowStart + runEnd]) runEnd++;
+                while (runEnd <= range.LastColumn && tiles[rowStart + runEnd]) runEnd++;
                 int start = tile * TileSize, end = Math.Min(Width, runEnd * TileSize);
                 for (int y = Math.Max(firstRow, tileRow * TileSize); y < Math.Min(endRow, (tileRow + 1) * TileSize); y++)
                     action.Run(y, y * Width + start, y * Width + end);
@@ -219,6 +235,7 @@ public sealed class SkyRasterizer
         }
     }
 
+    /// <summary>Surfaces over one run of a band's row, eight pixels at a time; groups of eight with no coverage are skipped.</summary>
     private readonly struct CompositeRun(SurfacePlanes pixels, HdrBand band) : IRunAction
     {
         public void Run(int row, int start, int end)
@@ -226,7 +243,20 @@ public sealed class SkyRasterizer
             float[] red = band.Buffer.Red, green = band.Buffer.Green, blue = band.Buffer.Blue;
             int rowStart = row * band.Buffer.Width, shift = band.RowStart(row) - rowStart;
             bool touched = false;
-            for (int i = start; i < end; i++)
+            int i = start;
+            for (; i + VectorLanes.Count <= end; i += VectorLanes.Count)
+            {
+                Vector256<float> alpha = Lanes(pixels.Alpha, i);
+                if (alpha == Vector256<float>.Zero) continue;
+                // Where alpha is 0 the premultiplied colour is 0 too, so those lanes keep their value.
+                Vector256<float> keep = Vector256<float>.One - alpha;
+                int at = i + shift;
+                (Lanes(red, at) * keep + Lanes(pixels.Red, i)).StoreUnsafe(ref Element(red, at));
+                (Lanes(green, at) * keep + Lanes(pixels.Green, i)).StoreUnsafe(ref Element(green, at));
+                (Lanes(blue, at) * keep + Lanes(pixels.Blue, i)).StoreUnsafe(ref Element(blue, at));
+                touched = true;
+            }
+            for (; i < end; i++)
             {
                 float alpha = pixels.Alpha[i];
                 if (alpha == 0) continue;
@@ -241,17 +271,32 @@ public sealed class SkyRasterizer
         }
     }
 
+    /// <summary>Each covered pixel's level (brightest channel at full coverage), eight pixels at a time; groups of eight with no coverage are skipped.</summary>
     private readonly struct LevelsOfRun(SurfacePlanes pixels, LevelHistogram levels) : IRunAction
     {
         public void Run(int row, int start, int end)
         {
-            for (int i = start; i < end; i++)
+            int i = start;
+            for (; i + VectorLanes.Count <= end; i += VectorLanes.Count)
+            {
+                Vector256<float> alpha = Lanes(pixels.Alpha, i);
+                uint covered = Vector256.GreaterThan(alpha, Vector256<float>.Zero).ExtractMostSignificantBits();
+                if (covered == 0) continue;
+                Vector256<float> brightest = Vector256.Max(Lanes(pixels.Red, i), Vector256.Max(Lanes(pixels.Green, i), Lanes(pixels.Blue, i)));
+                levels.Add(brightest / alpha, covered);
+            }
+            for (; i < end; i++)
             {
                 float alpha = pixels.Alpha[i];
                 if (alpha > 0) levels.Add(MathF.Max(pixels.Red[i], MathF.Max(pixels.Green[i], pixels.Blue[i])) / alpha);
             }
         }
     }
+
+    /// <summary>Eight values of <paramref name="plane"/> from <paramref name="index"/>, which the caller keeps inside the array.</summary>
+    private static Vector256<float> Lanes(float[] plane, int index) => Vector256.LoadUnsafe(ref Element(plane, index));
+
+    private static ref float Element(float[] plane, int index) => ref Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(plane), index);
 
     private readonly struct ClearRun(SurfacePlanes pixels) : IRunAction
     {
@@ -413,6 +458,8 @@ public sealed class SkyRasterizer
     private unsafe BandDirections FillBand(int band, BandDirections directions)
     {
         int top = band * BandRows, bottom = Math.Min(Height, top + BandRows) - 1;
+        var clear = new ClearRun(_pixels);
+        ForEachRun(_staleTiles, _staleRange, top, bottom + 1, ref clear);
         // Only the drawn tiles' directions: every pixel a triangle searches lies in one.
         var unproject = new UnprojectRun(Projection, directions, top);
         ForEachDirtyRun(top, bottom + 1, ref unproject);

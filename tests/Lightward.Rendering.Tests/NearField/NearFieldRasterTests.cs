@@ -93,6 +93,31 @@ public class NearFieldRasterTests
         Assert.Contains(one, b => b is > 30 and < 255);
     }
 
+
+    [Fact]
+    public void BodiesDrawnFrameAfterFrameLeaveNothingBehindThem()
+    {
+        // The surface layer keeps its planes between frames and empties the tiles it drew only as the next frame fills
+        // each band (our own design): a body moving across the view must look in every frame as it does when drawn afresh.
+        NearFieldLayer Layer() => new([Ball(new Vec3(-2, 0, 12), beta: new Vec3(0.5, 0.1, 0))], SpaceGrid.AtRestInHome(2, 12));
+        var scene = new Scene(Optics.StarCatalog.Procedural(2000, 9));
+        var camera = new Camera(ProjectionKind.Perspective, 257, 160, Math.PI / 2, 0, Exposure.Manual(0));
+        var renderer = new FrameRenderer(2);
+        renderer.Layers.Add(Layer());
+        var image = new RgbaImage(257, 160);
+        for (int frame = 0; frame < 5; frame++)
+        {
+            // A few pixels a frame, so that each frame draws over tiles the last one drew; frame 3 looks away from the
+            // body and draws no surface at all, so the next frame starts from nothing drawn.
+            Rotation look = frame == 3 ? Rotation.FromAxisAngle(Vec3.UnitY, Math.PI) : Rotation.Identity;
+            var observer = new Observer(NearFieldImages.ShipAtRest(time: 0.5 * frame), look);
+            var fresh = new FrameRenderer(1);
+            fresh.Layers.Add(Layer());
+            byte[] expected = fresh.Render(scene, observer, camera).Pixels;
+            renderer.Render(scene, observer, camera, image);
+            Assert.True(expected.AsSpan().SequenceEqual(image.Pixels), $"frame {frame} differs from a fresh render");
+        }
+    }
     [Fact]
     public void GridAheadOfAFastShipIsBluerAndBrighterThanBehindIt()
     {

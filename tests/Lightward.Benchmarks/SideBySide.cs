@@ -1,0 +1,79 @@
+using System.Diagnostics;
+
+namespace Lightward.Benchmarks;
+
+/// <summary>
+/// The speed goals measured side by side: each goal's baseline and candidate run in alternating blocks of frames in
+/// one process, so that both see the same phases of a shared, drifting machine, and the medians of the block times
+/// are compared. BenchmarkDotNet runs one case after another, minutes apart, and its means take in every slow phase
+/// of the host; here the ratio of medians is what a goal is read from (the goals are stated for median frames).
+/// </summary>
+internal static class SideBySide
+{
+    /// <summary>Frames per timed block, and blocks per case.</summary>
+    private const int FramesPerBlock = 5, Blocks = 40;
+
+    public static void Run(TextWriter output)
+    {
+        output.WriteLine($"Side by side: alternating blocks of {FramesPerBlock} frames, {Blocks} blocks each; medians of the block means.");
+        output.WriteLine($"{"goal",-58} {"baseline",12} {"candidate",12} {"result",12}");
+
+        var frames = new RenderFrameBenchmarks();
+        frames.Setup();
+        (double skia, double atRest) = Compare(frames.SkiaCirclePerStar, frames.PipelineAtRest, framesPerBlock: 1);
+        Report(output, "1080p Hipparcos + CMB at rest vs SkiaSharp per star (≥ 30×)", skia, atRest, $"{skia / atRest:F1}×");
+        (skia, double turning) = Compare(frames.SkiaCirclePerStar, frames.PipelineTurning, framesPerBlock: 1);
+        Report(output, "same, turning view vs SkiaSharp per star (≥ 30×)", skia, turning, $"{skia / turning:F1}×");
+        frames.Cleanup();
+
+        var speed = new RelativisticCostBenchmarks();
+        speed.Setup();
+        (double rest, double fast) = Compare(speed.FullSkyAtRest, speed.FullSkyAtRapidity3);
+        Report(output, "full sky: rapidity 3 vs rest (≤ 1.15×)", rest, fast, $"{fast / rest:F2}×");
+        (rest, fast) = Compare(speed.PerspectiveAtRest, speed.PerspectiveAtRapidity3);
+        Report(output, "90° perspective: rapidity 3 vs rest", rest, fast, $"{fast / rest:F2}×");
+
+        foreach (int bands in new[] { 24, 48, 96 })
+        {
+            var nearField = new NearFieldBenchmarks { Bands = bands };
+            nearField.Setup();
+            (double without, double with) = Compare(nearField.FrameWithoutNearField, nearField.FrameWithBodiesAndGrid);
+            Report(output, $"three bodies of {4 * bands * bands - 4 * bands:N0} triangles + grid, added (≤ 4 ms)", without, with, $"+{with - without:F2} ms");
+        }
+    }
+
+    /// <summary>Median milliseconds per frame of <paramref name="baseline"/> and <paramref name="candidate"/>, timed in alternating blocks after a warm-up.</summary>
+    private static (double Baseline, double Candidate) Compare(Action baseline, Action candidate, int framesPerBlock = FramesPerBlock)
+    {
+        for (int frame = 0; frame < 10; frame++)
+        {
+            baseline();
+            candidate();
+        }
+        var baselineTimes = new double[Blocks];
+        var candidateTimes = new double[Blocks];
+        for (int block = 0; block < Blocks; block++)
+        {
+            baselineTimes[block] = BlockMean(baseline, framesPerBlock);
+            candidateTimes[block] = BlockMean(candidate, framesPerBlock);
+        }
+        return (Median(baselineTimes), Median(candidateTimes));
+    }
+
+    private static double BlockMean(Action frame, int frames)
+    {
+        long start = Stopwatch.GetTimestamp();
+        for (int i = 0; i < frames; i++) frame();
+        return Stopwatch.GetElapsedTime(start).TotalMilliseconds / frames;
+    }
+
+    private static double Median(double[] values)
+    {
+        Array.Sort(values);
+        int middle = values.Length / 2;
+        return values.Length % 2 == 1 ? values[middle] : (values[middle - 1] + values[middle]) / 2;
+    }
+
+    private static void Report(TextWriter output, string goal, double baseline, double candidate, string result) =>
+        output.WriteLine($"{goal,-58} {baseline,9:F3} ms {candidate,9:F3} ms {result,12}");
+}
