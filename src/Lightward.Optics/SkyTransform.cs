@@ -19,7 +19,11 @@ namespace Lightward.Optics;
 /// </summary>
 public sealed unsafe class SkyTransform
 {
-    public const int ChunkLength = 4096;
+    /// <summary>
+    /// Most stars per piece: small enough that the pieces, taken one at a time by whichever thread is free, keep both
+    /// cores busy to the end of the pass (a narrow view keeps only a few thousand stars).
+    /// </summary>
+    public const int ChunkLength = 1024;
 
     /// <summary>
     /// Highest rapidity the single-precision pass handles (γ ≈ 1.2 × 10¹⁷): beyond it e^(−2φ) leaves the float range.
@@ -67,7 +71,7 @@ public sealed unsafe class SkyTransform
         this.output = output;
         try
         {
-            Parallel.For(0, pieces.Count, parallel, transformPiece);
+            ParallelItems.For(0, pieces.Count, parallel, transformPiece);
         }
         finally
         {
@@ -97,7 +101,7 @@ public sealed unsafe class SkyTransform
         }
         double rapidity = Math.Min(shipFrame.Velocity.Rapidity, MaxRapidity);
         Vec3 motion = shipFrame.Velocity.Direction.NormalizedOr(Vec3.UnitZ);
-        var cappedVelocity = new Velocity(rapidity, motion);
+        var observer = new MovingObserver(motion, rapidity);
         Vec3 viewAxisComoving = shipFrame.Orientation.Rotate(view.Axis);
         ReadOnlySpan<Vec3> edgesComoving = EdgesComoving(view.EdgePlanes.Span, shipFrame.Orientation);
         double expMinus = Math.Exp(-rapidity), sinh = Math.Sinh(rapidity);
@@ -113,7 +117,7 @@ public sealed unsafe class SkyTransform
             double cosFarthest = cosCentre <= -cosRadius[cell] ? -1 : cosCentre * cosRadius[cell] - sinCentre * sinRadius[cell];
             double dopplerMin = expMinus + sinh * (1 + cosFarthest);
             double imageRadius = catalog.CellRadius[cell] / dopplerMin, reach = view.HalfAngle + imageRadius;
-            Vec3 apparentAxis = Aberration.Apparent(axis, cappedVelocity);
+            Vec3 apparentAxis = observer.Apparent(axis);
             if (reach < Math.PI && Vec3.Dot(apparentAxis, viewAxisComoving) < Math.Cos(reach)) continue;
             if (BeyondAnEdge(apparentAxis, imageRadius, edgesComoving)) continue;
             if (runLength > 0 && runStart + runLength == first) runLength += length;

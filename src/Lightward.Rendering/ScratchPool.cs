@@ -1,3 +1,5 @@
+using Lightward.Spacetime;
+
 namespace Lightward.Rendering;
 
 /// <summary>

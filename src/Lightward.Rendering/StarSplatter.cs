@@ -3,6 +3,7 @@ using System.Runtime.CompilerServices;
 using System.Runtime.Intrinsics;
 using Lightward.Optics;
 using Lightward.Rendering.Projections;
+using Lightward.Spacetime;
 
 namespace Lightward.Rendering;
 

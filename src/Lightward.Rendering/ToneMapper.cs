@@ -122,18 +122,22 @@ public static class ToneMapper
         new Span<ushort>(dark, paddedBlocks).Clear();
         for (int row = 0; row < rows; row++)
         {
-            if (!litKnown) new Span<uint>(rgba + (long)row * rgbaStride, width).Fill(OpaqueBlack);
+            uint* rowPixels = rgba + (long)row * rgbaStride;
+            if (!litKnown) new Span<uint>(rowPixels, width).Fill(OpaqueBlack);
             byte* rowMarks = planes.Marks + row * planes.MarkStride;
-            for (int block = 0; block < blocksPerRow; block++)
+            ushort* rowLit = lit + row * litStride;
+            for (int block = 0, at = row * maskRowStride; block < blocksPerRow; block++, at++)
             {
-                int at = row * maskRowStride + block;
-                ushort mask = (ushort)MarkedGroups(rowMarks + block * MarkBlock, Math.Min(MarkBlock, groups - block * MarkBlock));
+                ushort mask = TakeMarks(rowMarks + block * MarkBlock, Math.Min(MarkBlock, groups - block * MarkBlock));
                 marked[at] = mask;
-                dark[at] = litKnown ? (ushort)(lit[row * litStride + block] & ~mask) : (ushort)0;
-                if (lit != null) lit[row * litStride + block] = mask;
-                if (litKnown) PrefetchGroups(rgba + (long)row * rgbaStride + block * MarkBlock * HdrFrame.GroupWidth, (uint)(mask | dark[at]));
+                if (lit == null) continue;
+                if (litKnown)
+                {
+                    dark[at] = (ushort)(rowLit[block] & ~mask);
+                    PrefetchGroups(rowPixels + block * MarkBlock * HdrFrame.GroupWidth, (uint)(mask | dark[at]));
+                }
+                rowLit[block] = mask;
             }
-            new Span<byte>(rowMarks, groups).Clear();
         }
         int wholeGroups = width / HdrFrame.GroupWidth;
         bool vectorized = Avx2.IsSupported && HdrFrame.GroupWidth == Vector256<float>.Count;
@@ -188,14 +192,26 @@ public static class ToneMapper
         else new Span<uint>(rgba + first, Math.Min(HdrFrame.GroupWidth, width - first)).Fill(OpaqueBlack);
     }
 
-    /// <summary>Bit g set when group g of the <paramref name="count"/> (≤ <see cref="MarkBlock"/>) at <paramref name="marks"/> is marked.</summary>
-    private static unsafe uint MarkedGroups(byte* marks, int count)
+    /// <summary>
+    /// Bit g set when group g of the <paramref name="count"/> (≤ <see cref="MarkBlock"/>) at <paramref name="marks"/>
+    /// is marked; the marks are cleared as they are read.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe ushort TakeMarks(byte* marks, int count)
     {
-        if (count == MarkBlock) return ~Vector128.Equals(Vector128.Load(marks), Vector128<byte>.Zero).ExtractMostSignificantBits() & 0xFFFF;
+        if (count == MarkBlock)
+        {
+            Vector128<byte> block = Vector128.Load(marks);
+            Vector128<byte>.Zero.Store(marks);
+            return (ushort)~Vector128.Equals(block, Vector128<byte>.Zero).ExtractMostSignificantBits();
+        }
         uint marked = 0;
         for (int group = 0; group < count; group++)
+        {
             if (marks[group] != 0) marked |= 1u << group;
-        return marked;
+            marks[group] = 0;
+        }
+        return (ushort)marked;
     }
 
     /// <summary>

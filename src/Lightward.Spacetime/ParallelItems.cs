@@ -1,4 +1,4 @@
-namespace Lightward.Rendering;
+namespace Lightward.Spacetime;
 
 /// <summary>
 /// Runs a loop's items over the threads one item at a time, each thread taking the lowest item no thread has taken

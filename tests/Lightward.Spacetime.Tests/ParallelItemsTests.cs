@@ -1,6 +1,6 @@
 using System.Collections.Concurrent;
 
-namespace Lightward.Rendering.Tests;
+namespace Lightward.Spacetime.Tests;
 
 public class ParallelItemsTests
 {
