@@ -45,5 +45,36 @@ public class ParallelItemsTests
         Assert.True(ran < 10_000, "the other threads went on taking items after the failure");
     }
 
+    [Fact]
+    public void Loops_inside_loops_and_loops_on_several_threads_at_once_each_run_every_item_once()
+    {
+        // The helper threads serve one loop at a time; the others (an inner loop, another caller) take the thread pool.
+        var runs = new int[4, 50, 20];
+        Parallel.For(0, 4, caller =>
+        {
+            for (int repeat = 0; repeat < 20; repeat++)
+                ParallelItems.For(0, 50, new ParallelOptions(), outer =>
+                    ParallelItems.For(0, 20, new ParallelOptions(), inner => Interlocked.Increment(ref runs[caller, outer, inner])));
+        });
+        Assert.All(runs.Cast<int>(), count => Assert.Equal(20, count));
+    }
+
+    [Fact]
+    public void Loops_far_apart_in_time_still_run_on_every_thread_asked_for()
+    {
+        // Helpers sleep once idle for a while; a loop must wake them (or do without them) and still run every item.
+        for (int loop = 0; loop < 3; loop++)
+        {
+            Thread.Sleep(5);
+            var runs = new int[64];
+            ParallelItems.For(0, 64, new ParallelOptions { MaxDegreeOfParallelism = 2 }, item =>
+            {
+                Thread.SpinWait(2_000);
+                Interlocked.Increment(ref runs[item]);
+            });
+            Assert.All(runs, count => Assert.Equal(1, count));
+        }
+    }
+
     private static int RuntimeHelpersHash(object o) => System.Runtime.CompilerServices.RuntimeHelpers.GetHashCode(o);
 }
