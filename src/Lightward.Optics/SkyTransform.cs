@@ -32,7 +32,9 @@ public sealed unsafe class SkyTransform
     public const double MaxRapidity = 40;
 
     private readonly bool vectorized;
-    private readonly Action<int> transformPiece;
+    private readonly Action<int> transformPiece, testCells;
+    private readonly bool[] cellShown = new bool[StarCatalog.CellCount];
+    private CellTest cellTest;
     private readonly List<Piece> pieces = [];
     private StarCatalog? trigCatalog;
     private (double[] Cos, double[] Sin) cellRadiusTrig;
@@ -49,6 +51,7 @@ public sealed unsafe class SkyTransform
     {
         this.vectorized = vectorized;
         transformPiece = TransformPiece;
+        testCells = TestCells;
     }
 
     /// <summary>Fills <paramref name="output"/> with every star of <paramref name="catalog"/>, in catalogue order, as seen from <paramref name="shipFrame"/>.</summary>
@@ -64,7 +67,7 @@ public sealed unsafe class SkyTransform
     public void Apply(StarCatalog catalog, LorentzFrame shipFrame, ApparentStars output, ViewCone view, ParallelOptions parallel)
     {
         frame = new FrameConstants(shipFrame);
-        int count = PlanPieces(catalog, shipFrame, view);
+        int count = PlanPieces(catalog, shipFrame, view, parallel);
         output.EnsureCapacity(count);
         output.Count = count;
         this.catalog = catalog;
@@ -91,7 +94,7 @@ public sealed unsafe class SkyTransform
     /// motion (the geodesic to any star stays in the cap, and its image is at most 1/D_min times as long).
     /// </para>
     /// </summary>
-    private int PlanPieces(StarCatalog catalog, LorentzFrame shipFrame, ViewCone view)
+    private int PlanPieces(StarCatalog catalog, LorentzFrame shipFrame, ViewCone view, ParallelOptions parallel)
     {
         pieces.Clear();
         if (view.HalfAngle >= Math.PI)
@@ -101,25 +104,15 @@ public sealed unsafe class SkyTransform
         }
         double rapidity = Math.Min(shipFrame.Velocity.Rapidity, MaxRapidity);
         Vec3 motion = shipFrame.Velocity.Direction.NormalizedOr(Vec3.UnitZ);
-        var observer = new MovingObserver(motion, rapidity);
-        Vec3 viewAxisComoving = shipFrame.Orientation.Rotate(view.Axis);
-        ReadOnlySpan<Vec3> edgesComoving = EdgesComoving(view.EdgePlanes.Span, shipFrame.Orientation);
-        double expMinus = Math.Exp(-rapidity), sinh = Math.Sinh(rapidity);
-        (double[] cosRadius, double[] sinRadius) = CellRadiusTrig(catalog);
+        TurnEdgesComoving(view.EdgePlanes.Span, shipFrame.Orientation);
+        cellTest = new CellTest(catalog, new MovingObserver(motion, rapidity), motion, shipFrame.Orientation.Rotate(view.Axis), view.HalfAngle,
+            Math.Exp(-rapidity), Math.Sinh(rapidity), CellRadiusTrig(catalog), view.EdgePlanes.Length);
+        ParallelItems.For(0, CellBlocks, parallel, testCells);
         int kept = 0, runStart = 0, runLength = 0;
         for (int cell = 0; cell < StarCatalog.CellCount; cell++)
         {
+            if (!cellShown[cell]) continue;
             int first = catalog.CellStart[cell], length = catalog.CellStart[cell + 1] - first;
-            if (length == 0) continue;
-            Vec3 axis = catalog.CellAxis[cell];
-            // cos of the cap's farthest angle from the motion, θ_c + r (capped at π), without inverse trigonometry.
-            double cosCentre = Math.Clamp(Vec3.Dot(axis, motion), -1, 1), sinCentre = Math.Sqrt(1 - cosCentre * cosCentre);
-            double cosFarthest = cosCentre <= -cosRadius[cell] ? -1 : cosCentre * cosRadius[cell] - sinCentre * sinRadius[cell];
-            double dopplerMin = expMinus + sinh * (1 + cosFarthest);
-            double imageRadius = catalog.CellRadius[cell] / dopplerMin, reach = view.HalfAngle + imageRadius;
-            Vec3 apparentAxis = observer.Apparent(axis);
-            if (reach < Math.PI && Vec3.Dot(apparentAxis, viewAxisComoving) < Math.Cos(reach)) continue;
-            if (BeyondAnEdge(apparentAxis, imageRadius, edgesComoving)) continue;
             if (runLength > 0 && runStart + runLength == first) runLength += length;
             else
             {
@@ -133,15 +126,45 @@ public sealed unsafe class SkyTransform
         return kept;
     }
 
+    /// <summary>Blocks of cells tested side by side; each block writes only its own cells' entries.</summary>
+    private const int CellBlocks = 8;
+
+    /// <summary>What a frame's cell test needs: the view in the comoving axes cells are tested in, and the motion.</summary>
+    private readonly record struct CellTest(StarCatalog Catalog, MovingObserver Observer, Vec3 Motion, Vec3 ViewAxis, double HalfAngle,
+        double ExpMinus, double Sinh, (double[] Cos, double[] Sin) RadiusTrig, int EdgeCount);
+
+    /// <summary>Notes, for each non-empty cell of a block, whether its stars can appear in the view.</summary>
+    private void TestCells(int block)
+    {
+        ref readonly CellTest test = ref cellTest;
+        StarCatalog catalog = test.Catalog;
+        ReadOnlySpan<Vec3> edges = edgeNormals.AsSpan(0, test.EdgeCount);
+        int blockLength = (StarCatalog.CellCount + CellBlocks - 1) / CellBlocks;
+        for (int cell = block * blockLength; cell < Math.Min(StarCatalog.CellCount, (block + 1) * blockLength); cell++)
+        {
+            cellShown[cell] = false;
+            if (catalog.CellStart[cell + 1] == catalog.CellStart[cell]) continue;
+            Vec3 axis = catalog.CellAxis[cell];
+            double cosRadius = test.RadiusTrig.Cos[cell], sinRadius = test.RadiusTrig.Sin[cell];
+            // cos of the cap's farthest angle from the motion, θ_c + r (capped at π), without inverse trigonometry.
+            double cosCentre = Math.Clamp(Vec3.Dot(axis, test.Motion), -1, 1), sinCentre = Math.Sqrt(1 - cosCentre * cosCentre);
+            double cosFarthest = cosCentre <= -cosRadius ? -1 : cosCentre * cosRadius - sinCentre * sinRadius;
+            double dopplerMin = test.ExpMinus + test.Sinh * (1 + cosFarthest);
+            double imageRadius = catalog.CellRadius[cell] / dopplerMin, reach = test.HalfAngle + imageRadius;
+            Vec3 apparentAxis = test.Observer.Apparent(axis);
+            if (reach < Math.PI && Vec3.Dot(apparentAxis, test.ViewAxis) < Math.Cos(reach)) continue;
+            cellShown[cell] = !BeyondAnEdge(apparentAxis, imageRadius, edges);
+        }
+    }
+
     /// <summary>Slack (radians) on each edge plane for the single-precision rounding of star directions.</summary>
     private const double EdgeSlack = 1e-4;
 
-    /// <summary>The view's edge planes' normals turned from ship axes into the comoving axes the cells are tested in.</summary>
-    private ReadOnlySpan<Vec3> EdgesComoving(ReadOnlySpan<Vec3> edgePlanes, Rotation shipToComoving)
+    /// <summary>Turns the view's edge planes' normals from ship axes into the comoving axes the cells are tested in (into <see cref="edgeNormals"/>).</summary>
+    private void TurnEdgesComoving(ReadOnlySpan<Vec3> edgePlanes, Rotation shipToComoving)
     {
         if (edgeNormals.Length < edgePlanes.Length) edgeNormals = new Vec3[edgePlanes.Length];
         for (int i = 0; i < edgePlanes.Length; i++) edgeNormals[i] = shipToComoving.Rotate(edgePlanes[i]);
-        return edgeNormals.AsSpan(0, edgePlanes.Length);
     }
 
     /// <summary>
