@@ -20,17 +20,17 @@ public sealed class BlackbodyTable
     /// <summary>The shared table, built on first use (about a millisecond).</summary>
     public static BlackbodyTable Shared { get; } = new();
 
-    // Pinned (never moved by the collector) so SIMD gathers can address them directly.
-    /// <summary>ln of luminance in cd/m², and its step to the next entry.</summary>
-    public float[] LogLuminance { get; } = GC.AllocateArray<float>(Length, pinned: true);
-    public float[] LogLuminanceSlope { get; } = GC.AllocateArray<float>(Length, pinned: true);
-    /// <summary>Linear sRGB of unit luminance, and the steps to the next entry.</summary>
-    public float[] R { get; } = GC.AllocateArray<float>(Length, pinned: true);
-    public float[] G { get; } = GC.AllocateArray<float>(Length, pinned: true);
-    public float[] B { get; } = GC.AllocateArray<float>(Length, pinned: true);
-    public float[] RSlope { get; } = GC.AllocateArray<float>(Length, pinned: true);
-    public float[] GSlope { get; } = GC.AllocateArray<float>(Length, pinned: true);
-    public float[] BSlope { get; } = GC.AllocateArray<float>(Length, pinned: true);
+    /// <summary>
+    /// The entries, <see cref="EntryLength"/> floats each, side by side: ln of luminance in cd/m² and its step to the
+    /// next entry, then linear sRGB of unit luminance (R, G, B), each with its step to the next entry (fields
+    /// <see cref="LogLuminanceField"/> … <see cref="BSlopeField"/>). A vector loop reads a star's whole entry with one
+    /// 32-byte load, where a table per quantity took eight gathers. Pinned (never moved by the collector), so those
+    /// loads can address it directly.
+    /// </summary>
+    public float[] Entries { get; } = GC.AllocateArray<float>(Length * EntryLength, pinned: true);
+
+    public const int EntryLength = 8;
+    public const int LogLuminanceField = 0, LogLuminanceSlopeField = 1, RField = 2, RSlopeField = 3, GField = 4, GSlopeField = 5, BField = 6, BSlopeField = 7;
 
     private BlackbodyTable()
     {
@@ -44,15 +44,17 @@ public sealed class BlackbodyTable
         }
         for (int i = 0; i < Length; i++)
         {
-            LogLuminance[i] = (float)logLuminance[i];
-            LogLuminanceSlope[i] = (float)(logLuminance[i + 1] - logLuminance[i]);
-            R[i] = (float)colors[i].R; RSlope[i] = (float)(colors[i + 1].R - colors[i].R);
-            G[i] = (float)colors[i].G; GSlope[i] = (float)(colors[i + 1].G - colors[i].G);
-            B[i] = (float)colors[i].B; BSlope[i] = (float)(colors[i + 1].B - colors[i].B);
+            Span<float> entry = Entries.AsSpan(i * EntryLength, EntryLength);
+            entry[LogLuminanceField] = (float)logLuminance[i];
+            entry[LogLuminanceSlopeField] = (float)(logLuminance[i + 1] - logLuminance[i]);
+            entry[RField] = (float)colors[i].R; entry[RSlopeField] = (float)(colors[i + 1].R - colors[i].R);
+            entry[GField] = (float)colors[i].G; entry[GSlopeField] = (float)(colors[i + 1].G - colors[i].G);
+            entry[BField] = (float)colors[i].B; entry[BSlopeField] = (float)(colors[i + 1].B - colors[i].B);
         }
         // Past the last entry: ln L grows like ln T (Rayleigh–Jeans) and the colour no longer changes.
-        LogLuminanceSlope[Length - 1] = (float)LogStep;
-        RSlope[Length - 1] = GSlope[Length - 1] = BSlope[Length - 1] = 0;
+        Span<float> last = Entries.AsSpan((Length - 1) * EntryLength, EntryLength);
+        last[LogLuminanceSlopeField] = (float)LogStep;
+        last[RSlopeField] = last[GSlopeField] = last[BSlopeField] = 0;
     }
 
     /// <summary>
@@ -70,9 +72,10 @@ public sealed class BlackbodyTable
         int index = (int)MathF.Min(position, Length - 1);
         float fraction = position - index;
         float colorFraction = MathF.Min(fraction, 1);
-        r = R[index] + colorFraction * RSlope[index];
-        g = G[index] + colorFraction * GSlope[index];
-        b = B[index] + colorFraction * BSlope[index];
-        return LogLuminance[index] + fraction * LogLuminanceSlope[index];
+        ReadOnlySpan<float> entry = Entries.AsSpan(index * EntryLength, EntryLength);
+        r = entry[RField] + colorFraction * entry[RSlopeField];
+        g = entry[GField] + colorFraction * entry[GSlopeField];
+        b = entry[BField] + colorFraction * entry[BSlopeField];
+        return entry[LogLuminanceField] + fraction * entry[LogLuminanceSlopeField];
     }
 }
