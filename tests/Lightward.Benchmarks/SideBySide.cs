@@ -4,9 +4,10 @@ namespace Lightward.Benchmarks;
 
 /// <summary>
 /// The speed goals measured side by side: each goal's baseline and candidate run in alternating blocks of frames in
-/// one process, so that both see the same phases of a shared, drifting machine, and the medians of the block times
-/// are compared. BenchmarkDotNet runs one case after another, minutes apart, and its means take in every slow phase
-/// of the host; here the ratio of medians is what a goal is read from (the frame goals are stated for median frames).
+/// one process, so that both see the same phases of a shared, drifting machine, and every frame is timed on its own.
+/// A goal is read from the median frames (the frame goals are stated for median frames); the medians of the block
+/// means are printed beside them, since a block's mean takes in any frame the host stalled. BenchmarkDotNet runs one
+/// case after another, minutes apart, and its means take in every slow phase of the host.
 /// </summary>
 internal static class SideBySide
 {
@@ -17,62 +18,74 @@ internal static class SideBySide
 
     public static void Run(TextWriter output)
     {
-        output.WriteLine($"Side by side: alternating blocks of {FramesPerBlock} frames (SkiaSharp: {SkiaFramesPerBlock}), each after one untimed frame; {Blocks} blocks each; medians of the block means.");
-        output.WriteLine($"{"goal",-58} {"baseline",12} {"candidate",12} {"result",12}");
+        output.WriteLine($"Side by side: alternating blocks of {FramesPerBlock} frames (SkiaSharp: {SkiaFramesPerBlock}), each after one untimed frame; {Blocks} blocks each.");
+        output.WriteLine("Times are median frames; the result is read from them, and in brackets from the medians of the block means (which take in every frame's hiccups).");
+        output.WriteLine($"{"goal",-58} {"baseline",12} {"candidate",12} {"result",22}");
 
         var frames = new RenderFrameBenchmarks();
         frames.Setup();
-        (double skia, double atRest) = Compare(frames.SkiaCirclePerStar, frames.PipelineAtRest, baselineFrames: SkiaFramesPerBlock);
-        Report(output, "1080p Hipparcos + CMB at rest vs SkiaSharp per star (≥ 30×)", skia, atRest, $"{skia / atRest:F1}×");
-        (skia, double turning) = Compare(frames.SkiaCirclePerStar, frames.PipelineTurning, baselineFrames: SkiaFramesPerBlock);
-        Report(output, "same, turning view vs SkiaSharp per star (≥ 30×)", skia, turning, $"{skia / turning:F1}×");
+        Reading atRest = Compare(frames.SkiaCirclePerStar, frames.PipelineAtRest, baselineFrames: SkiaFramesPerBlock);
+        Report(output, "1080p Hipparcos + CMB at rest vs SkiaSharp per star (≥ 30×)", atRest, (skia, ours) => $"{skia / ours:F1}×");
+        Reading turning = Compare(frames.SkiaCirclePerStar, frames.PipelineTurning, baselineFrames: SkiaFramesPerBlock);
+        Report(output, "same, turning view vs SkiaSharp per star (≥ 30×)", turning, (skia, ours) => $"{skia / ours:F1}×");
         frames.Cleanup();
 
         var speed = new RelativisticCostBenchmarks();
         speed.Setup();
-        (double rest, double fast) = Compare(speed.FullSkyAtRest, speed.FullSkyAtRapidity3);
-        Report(output, "full sky: rapidity 3 vs rest (≤ 1.15×)", rest, fast, $"{fast / rest:F2}×");
-        (rest, fast) = Compare(speed.PerspectiveAtRest, speed.PerspectiveAtRapidity3);
-        Report(output, "90° perspective: rapidity 3 vs rest", rest, fast, $"{fast / rest:F2}×");
+        Report(output, "full sky: rapidity 3 vs rest (≤ 1.15×)", Compare(speed.FullSkyAtRest, speed.FullSkyAtRapidity3), (rest, fast) => $"{fast / rest:F2}×");
+        Report(output, "90° perspective: rapidity 3 vs rest", Compare(speed.PerspectiveAtRest, speed.PerspectiveAtRapidity3), (rest, fast) => $"{fast / rest:F2}×");
 
         foreach (int bands in new[] { 24, 48, 96 })
         {
             var nearField = new NearFieldBenchmarks { Bands = bands };
             nearField.Setup();
-            (double without, double with) = Compare(nearField.FrameWithoutNearField, nearField.FrameWithBodiesAndGrid);
             int triangles = Rendering.NearField.MeshShapes.Sphere(1, bands).TriangleCount;
-            Report(output, $"three bodies of {triangles:N0} triangles + grid, added (≤ 4 ms)", without, with, $"+{with - without:F2} ms");
+            Report(output, $"three bodies of {triangles:N0} triangles + grid, added (≤ 4 ms)", Compare(nearField.FrameWithoutNearField, nearField.FrameWithBodiesAndGrid),
+                (without, with) => $"+{with - without:F2} ms");
         }
     }
 
-    /// <summary>Median milliseconds per frame of <paramref name="baseline"/> and <paramref name="candidate"/>, timed in alternating blocks after a warm-up.</summary>
-    private static (double Baseline, double Candidate) Compare(Action baseline, Action candidate, int baselineFrames = FramesPerBlock)
+    /// <summary>Milliseconds per frame of a baseline and a candidate: the medians of single frames and of block means.</summary>
+    private readonly record struct Reading(double BaselineFrame, double CandidateFrame, double BaselineBlock, double CandidateBlock);
+
+    /// <summary><paramref name="baseline"/> and <paramref name="candidate"/> timed in alternating blocks after a warm-up, every frame on its own.</summary>
+    private static Reading Compare(Action baseline, Action candidate, int baselineFrames = FramesPerBlock)
     {
         for (int frame = 0; frame < 10; frame++)
         {
             baseline();
             candidate();
         }
-        var baselineTimes = new double[Blocks];
-        var candidateTimes = new double[Blocks];
+        var baselineFrameTimes = new List<double>();
+        var candidateFrameTimes = new List<double>();
+        var baselineBlocks = new double[Blocks];
+        var candidateBlocks = new double[Blocks];
         for (int block = 0; block < Blocks; block++)
         {
-            baselineTimes[block] = BlockMean(baseline, baselineFrames);
-            candidateTimes[block] = BlockMean(candidate, FramesPerBlock);
+            baselineBlocks[block] = TimeBlock(baseline, baselineFrames, baselineFrameTimes);
+            candidateBlocks[block] = TimeBlock(candidate, FramesPerBlock, candidateFrameTimes);
         }
-        return (Median(baselineTimes), Median(candidateTimes));
+        return new Reading(Median([.. baselineFrameTimes]), Median([.. candidateFrameTimes]), Median(baselineBlocks), Median(candidateBlocks));
     }
 
     /// <summary>
-    /// Mean time of <paramref name="frames"/> frames, after one untimed frame that brings back the caches and wakes the
-    /// threads the other case left cold: a live view renders frame after frame.
+    /// Times <paramref name="frames"/> frames one by one into <paramref name="times"/> and returns their mean, after one
+    /// untimed frame that brings back the caches and wakes the threads the other case left cold: a live view renders
+    /// frame after frame.
     /// </summary>
-    private static double BlockMean(Action frame, int frames)
+    private static double TimeBlock(Action frame, int frames, List<double> times)
     {
         frame();
-        long start = Stopwatch.GetTimestamp();
-        for (int i = 0; i < frames; i++) frame();
-        return Stopwatch.GetElapsedTime(start).TotalMilliseconds / frames;
+        double total = 0;
+        for (int i = 0; i < frames; i++)
+        {
+            long start = Stopwatch.GetTimestamp();
+            frame();
+            double milliseconds = Stopwatch.GetElapsedTime(start).TotalMilliseconds;
+            times.Add(milliseconds);
+            total += milliseconds;
+        }
+        return total / frames;
     }
 
     private static double Median(double[] values)
@@ -82,6 +95,7 @@ internal static class SideBySide
         return values.Length % 2 == 1 ? values[middle] : (values[middle - 1] + values[middle]) / 2;
     }
 
-    private static void Report(TextWriter output, string goal, double baseline, double candidate, string result) =>
-        output.WriteLine($"{goal,-58} {baseline,9:F3} ms {candidate,9:F3} ms {result,12}");
+    private static void Report(TextWriter output, string goal, Reading reading, Func<double, double, string> result) =>
+        output.WriteLine($"{goal,-58} {reading.BaselineFrame,9:F3} ms {reading.CandidateFrame,9:F3} ms "
+            + $"{$"{result(reading.BaselineFrame, reading.CandidateFrame)} ({result(reading.BaselineBlock, reading.CandidateBlock)})",22}");
 }
