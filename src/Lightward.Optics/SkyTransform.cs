@@ -107,7 +107,14 @@ public sealed unsafe class SkyTransform
         TurnEdgesComoving(view.EdgePlanes.Span, shipFrame.Orientation);
         cellTest = new CellTest(catalog, new MovingObserver(motion, rapidity), motion, shipFrame.Orientation.Rotate(view.Axis), view.HalfAngle,
             Math.Exp(-rapidity), Math.Sinh(rapidity), CellRadiusTrig(catalog), view.EdgePlanes.Length);
-        ParallelItems.For(0, CellBlocks, parallel, testCells);
+        try
+        {
+            ParallelItems.For(0, CellBlocks, parallel, testCells);
+        }
+        finally
+        {
+            cellTest = default; // holds the catalogue only while its cells are tested, as the fields above do while transforming
+        }
         int kept = 0, runStart = 0, runLength = 0;
         for (int cell = 0; cell < StarCatalog.CellCount; cell++)
         {
