@@ -1,4 +1,3 @@
-using System.Diagnostics;
 using System.Reflection;
 using System.Runtime.Loader;
 
@@ -33,26 +32,12 @@ internal static class BuildComparison
             for (int block = 0; block < blocks; block++)
             {
                 // Each build goes first in every other block.
-                foreach (int k in block % 2 == 0 ? [0, 1] : new[] { 1, 0 }) times[k][block] = BlockMean(frames[k]);
+                foreach (int k in block % 2 == 0 ? [0, 1] : new[] { 1, 0 }) times[k][block] = FrameTiming.TimeBlock(frames[k], FramesPerBlock);
                 ratios[block] = times[1][block] / times[0][block];
             }
-            double medianA = Quantile(times[0], 0.5), medianB = Quantile(times[1], 0.5);
-            output.WriteLine($"{name,-10} {medianA,7:F3} ms {medianB,7:F3} ms {Quantile(ratios, 0.5),7:F3} {$"{Quantile(ratios, 0.25):F3} – {Quantile(ratios, 0.75):F3}",20}");
+            double medianA = FrameTiming.Quantile(times[0], 0.5), medianB = FrameTiming.Quantile(times[1], 0.5);
+            output.WriteLine($"{name,-10} {medianA,7:F3} ms {medianB,7:F3} ms {FrameTiming.Quantile(ratios, 0.5),7:F3} {$"{FrameTiming.Quantile(ratios, 0.25):F3} – {FrameTiming.Quantile(ratios, 0.75):F3}",20}");
         }
-    }
-
-    private static double BlockMean(Action frame)
-    {
-        frame();
-        long start = Stopwatch.GetTimestamp();
-        for (int i = 0; i < FramesPerBlock; i++) frame();
-        return Stopwatch.GetElapsedTime(start).TotalMilliseconds / FramesPerBlock;
-    }
-
-    private static double Quantile(double[] values, double q)
-    {
-        double[] sorted = [.. values.Order()];
-        return sorted[(int)Math.Round(q * (sorted.Length - 1))];
     }
 
     /// <summary>One build directory's assemblies; the runtime's own come from the default context.</summary>

@@ -9,8 +9,11 @@ else if (args is ["--compare-builds", string buildA, string buildB, ..])
 {
     try
     {
-        BuildComparison.Run(Console.Out, buildA, buildB, args.Length > 3 ? args[3] : "stars,turning,nf24",
-            args.Length > 4 && int.TryParse(args[4], out int blocks) && blocks > 0 ? blocks : 40);
+        if (args.Length > 5) throw new ArgumentException($"--compare-builds: unexpected argument '{args[5]}' (give two build directories, then optionally frames and a block count)");
+        int blocks = 40;
+        if (args.Length > 4 && !(int.TryParse(args[4], out blocks) && blocks >= 4))
+            throw new ArgumentException($"--compare-builds: block count '{args[4]}' is not a whole number of at least 4");
+        BuildComparison.Run(Console.Out, buildA, buildB, args.Length > 3 ? args[3] : "stars,turning,nf24", blocks);
     }
     catch (Exception failure) when (failure is IOException or ArgumentException or InvalidOperationException
         || failure.InnerException is ArgumentException)

@@ -1,5 +1,3 @@
-using System.Diagnostics;
-
 namespace Lightward.Benchmarks;
 
 /// <summary>
@@ -62,37 +60,10 @@ internal static class SideBySide
         var candidateBlocks = new double[Blocks];
         for (int block = 0; block < Blocks; block++)
         {
-            baselineBlocks[block] = TimeBlock(baseline, baselineFrames, baselineFrameTimes);
-            candidateBlocks[block] = TimeBlock(candidate, FramesPerBlock, candidateFrameTimes);
+            baselineBlocks[block] = FrameTiming.TimeBlock(baseline, baselineFrames, baselineFrameTimes);
+            candidateBlocks[block] = FrameTiming.TimeBlock(candidate, FramesPerBlock, candidateFrameTimes);
         }
-        return new Reading(Median([.. baselineFrameTimes]), Median([.. candidateFrameTimes]), Median(baselineBlocks), Median(candidateBlocks));
-    }
-
-    /// <summary>
-    /// Times <paramref name="frames"/> frames one by one into <paramref name="times"/> and returns their mean, after one
-    /// untimed frame that brings back the caches and wakes the threads the other case left cold: a live view renders
-    /// frame after frame.
-    /// </summary>
-    private static double TimeBlock(Action frame, int frames, List<double> times)
-    {
-        frame();
-        double total = 0;
-        for (int i = 0; i < frames; i++)
-        {
-            long start = Stopwatch.GetTimestamp();
-            frame();
-            double milliseconds = Stopwatch.GetElapsedTime(start).TotalMilliseconds;
-            times.Add(milliseconds);
-            total += milliseconds;
-        }
-        return total / frames;
-    }
-
-    private static double Median(double[] values)
-    {
-        Array.Sort(values);
-        int middle = values.Length / 2;
-        return values.Length % 2 == 1 ? values[middle] : (values[middle - 1] + values[middle]) / 2;
+        return new Reading(FrameTiming.Median([.. baselineFrameTimes]), FrameTiming.Median([.. candidateFrameTimes]), FrameTiming.Median(baselineBlocks), FrameTiming.Median(candidateBlocks));
     }
 
     private static void Report(TextWriter output, string goal, Reading reading, Func<double, double, string> result) =>
