@@ -45,6 +45,11 @@ public sealed class GridImager
     /// <summary>Lines traced per work item; each item writes its own list, joined in item order, so the output never depends on scheduling.</summary>
     private const int LinesPerChunk = 32;
     private readonly List<List<PixelSegment>> _chunks = [];
+    /// <summary>This frame's lattice lines, kept between frames.</summary>
+    private readonly List<(Vec3 From, Vec3 To)> _lines = [];
+    private readonly Action<int> _traceChunk;
+
+    public GridImager() => _traceChunk = TraceChunk;
 
     /// <summary>Appends the pixel segments of <paramref name="grid"/> seen from <paramref name="ship"/>.</summary>
     public void Trace(SpaceGrid grid, ShipState ship, Rotation cameraToShip, ViewCap view, Projection projection, List<PixelSegment> output, ParallelOptions parallel)
@@ -55,23 +60,26 @@ public sealed class GridImager
         _shader = new LineShader(grid.Temperature, grid.Brightness);
         _camera = _sight.CameraEvent.Space;
         _visible = FrameCap.Of(view, ViewMargin, _sight);
-        (Vec3 From, Vec3 To)[] lines = grid.LinesAround(_camera).ToArray();
-        int chunkCount = (lines.Length + LinesPerChunk - 1) / LinesPerChunk;
+        grid.LinesAround(_camera, _lines);
+        int chunkCount = (_lines.Count + LinesPerChunk - 1) / LinesPerChunk;
         while (_chunks.Count < chunkCount) _chunks.Add([]);
-        ParallelItems.For(0, chunkCount, parallel, chunk =>
-        {
-            List<PixelSegment> segments = _chunks[chunk];
-            segments.Clear();
-            Span<double> cuts = stackalloc double[4];
-            for (int line = chunk * LinesPerChunk; line < Math.Min(lines.Length, (chunk + 1) * LinesPerChunk); line++)
-            {
-                (Vec3 from, Vec3 to) = lines[line];
-                int count = _visible.Cut(from - _camera, to - from, cuts);
-                for (int piece = 0; piece < count; piece += 2)
-                    TraceLine(from + cuts[piece] * (to - from), from + cuts[piece + 1] * (to - from), segments);
-            }
-        });
+        ParallelItems.For(0, chunkCount, parallel, _traceChunk);
         for (int chunk = 0; chunk < chunkCount; chunk++) output.AddRange(_chunks[chunk]);
+    }
+
+    /// <summary>The lines of chunk <paramref name="chunk"/>, each cut to the view and traced into the chunk's own list.</summary>
+    private void TraceChunk(int chunk)
+    {
+        List<PixelSegment> segments = _chunks[chunk];
+        segments.Clear();
+        Span<double> cuts = stackalloc double[4];
+        for (int line = chunk * LinesPerChunk; line < Math.Min(_lines.Count, (chunk + 1) * LinesPerChunk); line++)
+        {
+            (Vec3 from, Vec3 to) = _lines[line];
+            int count = _visible.Cut(from - _camera, to - from, cuts);
+            for (int piece = 0; piece < count; piece += 2)
+                TraceLine(from + cuts[piece] * (to - from), from + cuts[piece + 1] * (to - from), segments);
+        }
     }
 
     private void TraceLine(Vec3 from, Vec3 to, List<PixelSegment> output)

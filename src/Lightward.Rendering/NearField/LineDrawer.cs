@@ -13,7 +13,8 @@ namespace Lightward.Rendering.NearField;
 /// piling up to white. A line point farther than the surface drawn in a pixel is hidden by it; pixels that show no
 /// sky (outside a dome's disc) stay dark. Segments are first sorted into row bands (in their fixed order); any range
 /// of rows is then drawn band by band, each pixel by the segments of its own band in that order, so the result does
-/// not depend on how the rows are split between threads. Each row is drawn eight neighbouring pixels at a time.
+/// not depend on how the rows are split between threads. Each row is drawn eight neighbouring pixels at a time; a steep
+/// line, four pixels wide in a row, two rows at a time.
 /// Every pixel written is marked touched. Keeps its band lists between frames.
 /// </summary>
 public sealed class LineDrawer
@@ -147,7 +148,32 @@ public sealed class LineDrawer
         public static bool Enabled => false;
     }
 
-    /// <summary>One stroke being drawn into one band: pixels are laid a row at a time, eight neighbours at once, with a coverage of 1 − (perpendicular distance) where positive.</summary>
+    /// <summary>
+    /// How a vector's eight lanes sit on the image: eight neighbouring pixels of one row, or four of each of two rows
+    /// (a steep line's window across two consecutive rows, so that its arithmetic and its loads serve both at once).
+    /// </summary>
+    private interface ILaneShape
+    {
+        static abstract bool TwoRows { get; }
+    }
+
+    private readonly struct RowOfEight : ILaneShape
+    {
+        public static bool TwoRows => false;
+    }
+
+    private readonly struct TwoRowsOfFour : ILaneShape
+    {
+        public static bool TwoRows => true;
+    }
+
+    /// <summary>Where a vector's lanes lie: lanes 0–7 from column <see cref="X"/> of row <see cref="Y"/>, or lanes 4–7 from column <see cref="NextX"/> of row <see cref="NextY"/> when the shape has two rows.</summary>
+    private readonly record struct LanePlace(int Y, int X, int NextY, int NextX);
+
+    /// <summary>A steep line's pixels in one row: the parameter and minor coordinate at the row's centre, and the (at most four) columns [From, To] its tent can reach (To &lt; From when none).</summary>
+    private readonly record struct RowWindow(float T, float Minor, int From, int To);
+
+    /// <summary>One stroke being drawn into one band: pixels are laid a row at a time, eight neighbours (or a steep line's four in each of two rows) at once, with a coverage of 1 − (perpendicular distance) where positive.</summary>
     private readonly unsafe ref struct Line(in Stroke stroke, float colourScale, Pixels pixels, bool testDepth, bool testSky)
     {
         private readonly bool _alongX = stroke.AlongX;
@@ -191,45 +217,93 @@ public sealed class LineDrawer
                 {
                     Vector256<float> t = (Vector256.Create((float)x) + VectorLanes.Centres - Vector256.Create(_start)) * Vector256.Create(_inverseSpan);
                     Vector256<float> minor = Vector256.Create(_minorStart) + t * Vector256.Create(_minorChange);
-                    Lay<TTests>(y, x, to, Vector256.Create(centre) - minor, t);
+                    Lay<TTests, RowOfEight>(new LanePlace(y, x, y, x), Vector256.Create(to), Vector256.Create(centre) - minor, t);
                 }
             }
         }
 
-        /// <summary>A line along y: rows [<paramref name="first"/>, <paramref name="last"/>], each over the pixels either side of where the line crosses it.</summary>
+        /// <summary>
+        /// A line along y: rows [<paramref name="first"/>, <paramref name="last"/>], each over the pixels either side of
+        /// where the line crosses it, two rows at a time (one vector holds both rows' four pixels) except at the right
+        /// edge of the image, where a row's window is laid on its own.
+        /// </summary>
         private void DrawRows<TTests>(int first, int last) where TTests : struct, IPixelTests
         {
-            for (int y = first; y <= last; y++)
+            int y = first;
+            for (; y < last; y += 2)
             {
-                float t = (y + 0.5f - _start) * _inverseSpan;
-                float minor = _minorStart + t * _minorChange;
-                // The pixel whose centre lies just below the line, and its neighbours: the tent reaches no farther.
-                float nearest = MathF.Floor(minor - 0.5f);
-                if (!(nearest + 2 >= 0 && nearest - 1 < _width)) continue;
-                int pixel = ToInt(nearest), from = Math.Max(0, pixel - 1), to = Math.Min(_width - 1, pixel + 2);
-                Lay<TTests>(y, from, to, Vector256.Create((float)from) + VectorLanes.Centres - Vector256.Create(minor), Vector256.Create(t));
+                RowWindow upper = Window(y), lower = Window(y + 1);
+                if (upper.From + TwoRowLanes > _width || lower.From + TwoRowLanes > _width)
+                {
+                    LayRow<TTests>(y, upper);
+                    LayRow<TTests>(y + 1, lower);
+                    continue;
+                }
+                Vector256<float> from = Vector256.Create(Vector128.Create((float)upper.From), Vector128.Create((float)lower.From));
+                Vector256<float> minor = Vector256.Create(Vector128.Create(upper.Minor), Vector128.Create(lower.Minor));
+                Lay<TTests, TwoRowsOfFour>(new LanePlace(y, upper.From, y + 1, lower.From), Vector256.Create(Vector128.Create(upper.To), Vector128.Create(lower.To)),
+                    from + TwoRowCentres - minor, Vector256.Create(Vector128.Create(upper.T), Vector128.Create(lower.T)));
             }
+            if (y == last) LayRow<TTests>(y, Window(y));
+        }
+
+        /// <summary>Lanes per row when a vector holds two rows.</summary>
+        private const int TwoRowLanes = VectorLanes.Count / 2;
+
+        /// <summary>0.5 … 3.5 for each of two rows: added to each row's first column, the centre of each lane's pixel.</summary>
+        private static readonly Vector256<float> TwoRowCentres = Vector256.Create(0.5f, 1.5f, 2.5f, 3.5f, 0.5f, 1.5f, 2.5f, 3.5f);
+
+        /// <summary>The pixel whose centre lies just below the line in row <paramref name="y"/>, and its neighbours: the tent reaches no farther.</summary>
+        private RowWindow Window(int y)
+        {
+            float t = (y + 0.5f - _start) * _inverseSpan;
+            float minor = _minorStart + t * _minorChange;
+            float nearest = MathF.Floor(minor - 0.5f);
+            if (!(nearest + 2 >= 0 && nearest - 1 < _width)) return new RowWindow(t, minor, 0, -1);
+            int pixel = ToInt(nearest);
+            return new RowWindow(t, minor, Math.Max(0, pixel - 1), Math.Min(_width - 1, pixel + 2));
+        }
+
+        /// <summary>A steep line's window in row <paramref name="y"/> on its own.</summary>
+        private void LayRow<TTests>(int y, RowWindow window) where TTests : struct, IPixelTests
+        {
+            if (window.To < window.From) return;
+            Lay<TTests, RowOfEight>(new LanePlace(y, window.From, y, window.From), Vector256.Create(window.To),
+                Vector256.Create((float)window.From) + VectorLanes.Centres - Vector256.Create(window.Minor), Vector256.Create(window.T));
         }
 
         /// <summary>
-        /// Pixels [<paramref name="x"/>, <paramref name="x"/> + 8) ∩ [.., <paramref name="to"/>] of row
-        /// <paramref name="y"/>, each <paramref name="offset"/> pixels across from the line at parameter <paramref name="t"/>.
+        /// The pixels of the lanes at <paramref name="place"/> whose columns are at most <paramref name="lastColumns"/>,
+        /// each <paramref name="offset"/> pixels across from the line at parameter <paramref name="t"/>.
         /// </summary>
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        private void Lay<TTests>(int y, int x, int to, Vector256<float> offset, Vector256<float> t) where TTests : struct, IPixelTests
+        private void Lay<TTests, TShape>(LanePlace place, Vector256<int> lastColumns, Vector256<float> offset, Vector256<float> t)
+            where TTests : struct, IPixelTests where TShape : struct, ILaneShape
         {
             Vector256<float> weight = Vector256<float>.One - Vector256.Abs(offset) * Vector256.Create(_perpendicular);
-            Vector256<float> covered = Vector256.GreaterThan(weight, Vector256<float>.Zero)
-                & Vector256.LessThanOrEqual(Vector256.Create(x) + VectorLanes.Indices, Vector256.Create(to)).AsSingle();
-            // Index of the first lane in the frame (depth, sky) and in the band's buffer (colour).
-            int pixel = y * _width + x, i = pixel - pixels.Origin * _width;
-            if (TTests.Enabled) covered &= Visible(y, x, pixel, Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
+            Vector256<int> columns = TShape.TwoRows
+                ? Vector256.Create(Vector128.Create(place.X), Vector128.Create(place.NextX)) + TwoRowIndices
+                : Vector256.Create(place.X) + VectorLanes.Indices;
+            Vector256<float> covered = Vector256.GreaterThan(weight, Vector256<float>.Zero) & Vector256.LessThanOrEqual(columns, lastColumns).AsSingle();
+            // Index of each row's first lane in the frame (depth, sky) and in the band's buffer (colour).
+            int pixel = place.Y * _width + place.X, i = pixel - pixels.Origin * _width;
+            int nextPixel = place.NextY * _width + place.NextX, nextI = nextPixel - pixels.Origin * _width;
+            if (TTests.Enabled) covered &= Visible<TShape>(place, pixel, nextPixel, Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
             uint lanes = covered.ExtractMostSignificantBits();
             if (lanes == 0) return;
             Vector256<float> red = Vector256.Create(_colour0.X) + t * Vector256.Create(_colourChange.X);
             Vector256<float> green = Vector256.Create(_colour0.Y) + t * Vector256.Create(_colourChange.Y);
             Vector256<float> blue = Vector256.Create(_colour0.Z) + t * Vector256.Create(_colourChange.Z);
-            if (x + VectorLanes.Count <= _width)
+            if (TShape.TwoRows)
+            {
+                OverTwoRows(pixels.Red, i, nextI, weight, red, covered);
+                OverTwoRows(pixels.Green, i, nextI, weight, green, covered);
+                OverTwoRows(pixels.Blue, i, nextI, weight, blue, covered);
+                Mark(place.Y, place.X, lanes & 0xF);
+                Mark(place.NextY, place.NextX, lanes >> TwoRowLanes);
+                return;
+            }
+            if (place.X + VectorLanes.Count <= _width)
             {
                 Over(pixels.Red + i, weight, red, covered);
                 Over(pixels.Green + i, weight, green, covered);
@@ -237,7 +311,7 @@ public sealed class LineDrawer
             }
             else
                 // The last few pixels of a row: one at a time, so nothing past the row's end is read or written.
-                for (int lane = 0; lane < _width - x; lane++)
+                for (int lane = 0; lane < _width - place.X; lane++)
                 {
                     if ((lanes >> lane & 1) == 0) continue;
                     float w = weight.GetElement(lane);
@@ -245,24 +319,48 @@ public sealed class LineDrawer
                     pixels.Green[i + lane] += w * (green.GetElement(lane) - pixels.Green[i + lane]);
                     pixels.Blue[i + lane] += w * (blue.GetElement(lane) - pixels.Blue[i + lane]);
                 }
+            Mark(place.Y, place.X, lanes);
+        }
+
+        /// <summary>0 … 3 for each of two rows: added to each row's first column, the column of each lane.</summary>
+        private static readonly Vector256<int> TwoRowIndices = Vector256.Create(0, 1, 2, 3, 0, 1, 2, 3);
+
+        /// <summary>Marks the groups of the first and last of <paramref name="lanes"/> (bit k: column <paramref name="x"/> + k of row <paramref name="y"/>); none when empty.</summary>
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        private void Mark(int y, int x, uint lanes)
+        {
+            if (lanes == 0) return;
             byte* rowMarks = pixels.Touched + (y - pixels.Origin) * pixels.GroupsPerRow;
             rowMarks[(uint)(x + BitOperations.TrailingZeroCount(lanes)) / HdrFrame.GroupWidth] = 1;
             rowMarks[(uint)(x + 31 - BitOperations.LeadingZeroCount(lanes)) / HdrFrame.GroupWidth] = 1;
         }
 
         /// <summary>
-        /// Lanes of row <paramref name="y"/> from column <paramref name="x"/> (frame pixel <paramref name="i"/>) not
-        /// behind a surface (line depth <paramref name="lineDepth"/>) and showing sky.
+        /// Lanes at <paramref name="place"/> (frame pixels <paramref name="pixel"/> and, for two rows,
+        /// <paramref name="nextPixel"/>) not behind a surface (line depth <paramref name="lineDepth"/>) and showing sky.
         /// </summary>
-        private Vector256<float> Visible(int y, int x, int i, Vector256<float> lineDepth)
+        private Vector256<float> Visible<TShape>(LanePlace place, int pixel, int nextPixel, Vector256<float> lineDepth) where TShape : struct, ILaneShape
         {
             Vector256<float> visible = Vector256<float>.AllBitsSet;
-            if (testDepth) visible = Vector256.LessThanOrEqual(lineDepth, Lanes(pixels.Depth + i, Math.Min(VectorLanes.Count, _width - x)));
+            if (testDepth)
+            {
+                Vector256<float> surfaceDepth = TShape.TwoRows
+                    ? Vector256.Create(Vector128.Load(pixels.Depth + pixel), Vector128.Load(pixels.Depth + nextPixel))
+                    : Lanes(pixels.Depth + pixel, Math.Min(VectorLanes.Count, _width - place.X));
+                visible = Vector256.LessThanOrEqual(lineDepth, surfaceDepth);
+            }
             if (testSky)
             {
-                (int first, int last) = pixels.Sky.SkyColumns(y);
-                Vector256<int> column = Vector256.Create(x) + VectorLanes.Indices;
-                visible &= (Vector256.GreaterThanOrEqual(column, Vector256.Create(first)) & Vector256.LessThanOrEqual(column, Vector256.Create(last))).AsSingle();
+                (int first, int last) = pixels.Sky.SkyColumns(place.Y);
+                Vector256<int> firstSky = Vector256.Create(first), lastSky = Vector256.Create(last), column = Vector256.Create(place.X) + VectorLanes.Indices;
+                if (TShape.TwoRows)
+                {
+                    (int nextFirst, int nextLast) = pixels.Sky.SkyColumns(place.NextY);
+                    firstSky = Vector256.Create(Vector128.Create(first), Vector128.Create(nextFirst));
+                    lastSky = Vector256.Create(Vector128.Create(last), Vector128.Create(nextLast));
+                    column = Vector256.Create(Vector128.Create(place.X), Vector128.Create(place.NextX)) + TwoRowIndices;
+                }
+                visible &= (Vector256.GreaterThanOrEqual(column, firstSky) & Vector256.LessThanOrEqual(column, lastSky)).AsSingle();
             }
             return visible;
         }
@@ -275,6 +373,16 @@ public sealed class LineDrawer
             lanes.Fill(float.PositiveInfinity);
             new ReadOnlySpan<float>(from, count).CopyTo(lanes);
             return Vector256.Create<float>(lanes);
+        }
+
+        /// <summary><see cref="Over"/> for a vector of two rows: lanes 0–3 at <paramref name="index"/>, lanes 4–7 at <paramref name="nextIndex"/>.</summary>
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        private static void OverTwoRows(float* plane, int index, int nextIndex, Vector256<float> weight, Vector256<float> colour, Vector256<float> covered)
+        {
+            Vector256<float> old = Vector256.Create(Vector128.Load(plane + index), Vector128.Load(plane + nextIndex));
+            Vector256<float> laid = Vector256.ConditionalSelect(covered, old + weight * (colour - old), old);
+            laid.GetLower().Store(plane + index);
+            laid.GetUpper().Store(plane + nextIndex);
         }
 
         /// <summary>plane ← plane + weight · (colour − plane) in the covered lanes.</summary>

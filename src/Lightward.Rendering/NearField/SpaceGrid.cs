@@ -27,11 +27,13 @@ public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin,
     public static SpaceGrid AtRestInHome(double spacing, double extent) => new(spacing, extent, new FourVector(0, 0, 0, 0), LorentzFrame.Identity);
 
     /// <summary>
-    /// The pieces of lattice lines inside the extent sphere around <paramref name="camera"/> (a position in the grid's
-    /// frame), each as its two ends on that sphere.
+    /// Replaces the contents of <paramref name="lines"/> with the pieces of lattice lines inside the extent sphere
+    /// around <paramref name="camera"/> (a position in the grid's frame), each as its two ends on that sphere. A list
+    /// the caller keeps, so that a steady stream of frames does not allocate.
     /// </summary>
-    public IEnumerable<(Vec3 From, Vec3 To)> LinesAround(Vec3 camera)
+    public void LinesAround(Vec3 camera, List<(Vec3 From, Vec3 To)> lines)
     {
+        lines.Clear();
         double radius = DrawnRadius;
         int reach = (int)Math.Ceiling(radius / Spacing);
         for (int axis = 0; axis < 3; axis++)
@@ -48,7 +50,7 @@ public sealed record SpaceGrid(double Spacing, double Extent, FourVector Origin,
                     double halfChord = radius * radius - offAxis;
                     if (halfChord <= 0) continue;
                     halfChord = Math.Sqrt(halfChord);
-                    yield return (foot - halfChord * along, foot + halfChord * along);
+                    lines.Add((foot - halfChord * along, foot + halfChord * along));
                 }
         }
     }

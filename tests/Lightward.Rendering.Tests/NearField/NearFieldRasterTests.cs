@@ -149,7 +149,9 @@ public class NearFieldRasterTests
         RestFrameSight sight = RestFrameSight.Of(grid.Origin, grid.Frame, ship, cameraToShip);
         Vec3 camera = sight.CameraEvent.Space;
         int checkedPoints = 0;
-        foreach ((Vec3 from, Vec3 to) in grid.LinesAround(camera))
+        var latticeLines = new List<(Vec3 From, Vec3 To)>();
+        grid.LinesAround(camera, latticeLines);
+        foreach ((Vec3 from, Vec3 to) in latticeLines)
             for (int k = 0; k <= 40; k++)
             {
                 Vec3 point = from + k / 40.0 * (to - from);
@@ -198,7 +200,9 @@ public class NearFieldRasterTests
         HdrFrame lines = Draw(new NearFieldLayer([], grid));
         RestFrameSight sight = RestFrameSight.Of(grid.Origin, grid.Frame, ship, Rotation.Identity);
         int checkedPoints = 0;
-        foreach ((Vec3 from, Vec3 to) in grid.LinesAround(sight.CameraEvent.Space))
+        var latticeLines = new List<(Vec3 From, Vec3 To)>();
+        grid.LinesAround(sight.CameraEvent.Space, latticeLines);
+        foreach ((Vec3 from, Vec3 to) in latticeLines)
             for (int k = 0; k <= 200; k++)
             {
                 Vec3 point = from + k / 200.0 * (to - from);
