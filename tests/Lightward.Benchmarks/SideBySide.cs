@@ -18,6 +18,7 @@ internal static class SideBySide
     {
         output.WriteLine($"Side by side: alternating blocks of {FramesPerBlock} frames (SkiaSharp: {SkiaFramesPerBlock}), each after one untimed frame; {Blocks} blocks each.");
         output.WriteLine("Times are median frames; the result is read from them, and in brackets from the medians of the block means (which take in every frame's hiccups).");
+        output.WriteLine($"Host before: {HostProbe.Measure()}.");
         output.WriteLine($"{"goal",-58} {"baseline",12} {"candidate",12} {"result",22}");
 
         var frames = new RenderFrameBenchmarks();
@@ -41,6 +42,7 @@ internal static class SideBySide
             Report(output, $"three bodies of {triangles:N0} triangles + grid, added (≤ 4 ms)", Compare(nearField.FrameWithoutNearField, nearField.FrameWithBodiesAndGrid),
                 (without, with) => $"+{with - without:F2} ms");
         }
+        output.WriteLine($"Host after: {HostProbe.Measure()}.");
     }
 
     /// <summary>Milliseconds per frame of a baseline and a candidate: the medians of single frames and of block means.</summary>
