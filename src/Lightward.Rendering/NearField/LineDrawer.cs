@@ -288,7 +288,7 @@ public sealed class LineDrawer
             // Index of each row's first lane in the frame (depth, sky) and in the band's buffer (colour).
             int pixel = place.Y * _width + place.X, i = pixel - pixels.Origin * _width;
             int nextPixel = place.NextY * _width + place.NextX, nextI = nextPixel - pixels.Origin * _width;
-            if (TTests.Enabled) covered &= Visible<TShape>(place, pixel, nextPixel, Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
+            if (TTests.Enabled) covered &= Visible<TShape>(place, columns, pixel, nextPixel, Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
             uint lanes = covered.ExtractMostSignificantBits();
             if (lanes == 0) return;
             Vector256<float> red = Vector256.Create(_colour0.X) + t * Vector256.Create(_colourChange.X);
@@ -299,7 +299,7 @@ public sealed class LineDrawer
                 OverTwoRows(pixels.Red, i, nextI, weight, red, covered);
                 OverTwoRows(pixels.Green, i, nextI, weight, green, covered);
                 OverTwoRows(pixels.Blue, i, nextI, weight, blue, covered);
-                Mark(place.Y, place.X, lanes & 0xF);
+                Mark(place.Y, place.X, lanes & ((1u << TwoRowLanes) - 1));
                 Mark(place.NextY, place.NextX, lanes >> TwoRowLanes);
                 return;
             }
@@ -336,10 +336,12 @@ public sealed class LineDrawer
         }
 
         /// <summary>
-        /// Lanes at <paramref name="place"/> (frame pixels <paramref name="pixel"/> and, for two rows,
-        /// <paramref name="nextPixel"/>) not behind a surface (line depth <paramref name="lineDepth"/>) and showing sky.
+        /// Lanes at <paramref name="place"/> (columns <paramref name="columns"/>; frame pixels <paramref name="pixel"/>
+        /// and, for two rows, <paramref name="nextPixel"/>) not behind a surface (line depth <paramref name="lineDepth"/>)
+        /// and showing sky.
         /// </summary>
-        private Vector256<float> Visible<TShape>(LanePlace place, int pixel, int nextPixel, Vector256<float> lineDepth) where TShape : struct, ILaneShape
+        private Vector256<float> Visible<TShape>(LanePlace place, Vector256<int> columns, int pixel, int nextPixel, Vector256<float> lineDepth)
+            where TShape : struct, ILaneShape
         {
             Vector256<float> visible = Vector256<float>.AllBitsSet;
             if (testDepth)
@@ -352,15 +354,14 @@ public sealed class LineDrawer
             if (testSky)
             {
                 (int first, int last) = pixels.Sky.SkyColumns(place.Y);
-                Vector256<int> firstSky = Vector256.Create(first), lastSky = Vector256.Create(last), column = Vector256.Create(place.X) + VectorLanes.Indices;
+                Vector256<int> firstSky = Vector256.Create(first), lastSky = Vector256.Create(last);
                 if (TShape.TwoRows)
                 {
                     (int nextFirst, int nextLast) = pixels.Sky.SkyColumns(place.NextY);
                     firstSky = Vector256.Create(Vector128.Create(first), Vector128.Create(nextFirst));
                     lastSky = Vector256.Create(Vector128.Create(last), Vector128.Create(nextLast));
-                    column = Vector256.Create(Vector128.Create(place.X), Vector128.Create(place.NextX)) + TwoRowIndices;
                 }
-                visible &= (Vector256.GreaterThanOrEqual(column, firstSky) & Vector256.LessThanOrEqual(column, lastSky)).AsSingle();
+                visible &= (Vector256.GreaterThanOrEqual(columns, firstSky) & Vector256.LessThanOrEqual(columns, lastSky)).AsSingle();
             }
             return visible;
         }
