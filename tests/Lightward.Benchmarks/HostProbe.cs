@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using Lightward.Rendering;
 
 namespace Lightward.Benchmarks;
 
@@ -17,7 +18,7 @@ internal static class HostProbe
         public override string ToString() => $"arithmetic chain {ArithmeticMilliseconds:F2} ms, scattered image writes {ScatteredWritesMilliseconds:F2} ms";
     }
 
-    private const int Width = 1920, Height = 1080, GroupWidth = 8, Groups = 35_000, Passes = 15;
+    private const int Width = 1920, Height = 1080, GroupWidth = HdrFrame.GroupWidth, Groups = 35_000, Passes = 15;
     private const int OtherMemoryBytes = 32 << 20, CacheLine = 64;
 
     public static Reading Measure()
@@ -41,7 +42,7 @@ internal static class HostProbe
     {
         var random = new Random(1);
         int[] starts = [.. Enumerable.Range(0, Groups).Select(_ => random.Next(Height) * Width + random.Next(Width / GroupWidth) * GroupWidth)];
-        return [.. starts.OrderBy(start => (start / Width / 16, start % Width / 128, start))];
+        return [.. starts.OrderBy(start => (start / Width / StarSplatter.BandHeight, start % Width / StarSplatter.TileWidth, start))];
     }
 
     private static void WriteGroups(uint[] image, int[] groupStarts, uint value)
