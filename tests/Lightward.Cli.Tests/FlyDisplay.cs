@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using System.Globalization;
 
 namespace Lightward.Cli.Tests;
 
@@ -36,6 +37,18 @@ public sealed class FlyDisplay : IDisposable
         if (!server.HasExited) server.Kill();
         server.Dispose();
         throw new InvalidOperationException("Xvfb did not start");
+    }
+
+    /// <summary>
+    /// Waits until a window named <paramref name="name"/> is mapped, then parks the pointer at (<paramref name="x"/>,
+    /// <paramref name="y"/>) inside it. With no window manager, keyboard focus follows the pointer:
+    /// keys sent while the pointer is over a window that exists but is not yet mapped reach no window at all, which
+    /// made a window test fail once on a loaded machine.
+    /// </summary>
+    public void ParkPointerOn(string name, int x, int y)
+    {
+        string window = XDoTool("search", "--sync", "--onlyvisible", "--name", name).Split('\n')[0].Trim();
+        XDoTool("mousemove", "--window", window, x.ToString(CultureInfo.InvariantCulture), y.ToString(CultureInfo.InvariantCulture));
     }
 
     /// <summary>Runs xdotool against this display and returns what it printed.</summary>

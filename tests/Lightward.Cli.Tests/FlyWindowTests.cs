@@ -21,9 +21,7 @@ public class FlyWindowTests
         Task<CliRunner.Result> flight = Task.Run(() => CliRunner.RunWith(folder, environment,
             "fly", "--seconds", "6", "--size", "640x360", "--state-out", "state.json", "--screenshot", "shot.png"));
 
-        string window = display.XDoTool("search", "--sync", "--name", "Lightward").Split('\n')[0].Trim();
-        // No window manager: keyboard focus follows the pointer, so park the pointer on the window.
-        display.XDoTool("mousemove", "--window", window, "100", "100");
+        display.ParkPointerOn("Lightward", 100, 100);
         display.XDoTool("key", "z");                      // throttle-full
         display.XDoTool("key", "period", "period");       // time-faster twice: x100
         display.XDoTool("keydown", "d");                  // yaw-right

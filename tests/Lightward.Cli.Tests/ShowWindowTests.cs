@@ -40,9 +40,8 @@ public sealed class ShowWindowTests : IDisposable
         Task<CliRunner.Result> show = Task.Run(() => CliRunner.RunWith(_folder, environment,
             "show", "window.show.toml", "--size", "64", "--operator-screenshot", "operator.png"));
 
-        string operatorWindow = display.XDoTool("search", "--sync", "--name", "Lightward operator").Split('\n')[0].Trim();
-        // No window manager: keyboard focus follows the pointer, so park it on the operator window, clear of the small dome window.
-        display.XDoTool("mousemove", "--window", operatorWindow, "600", "400");
+        // Clear of the small dome window.
+        display.ParkPointerOn("Lightward operator", 600, 400);
         display.XDoTool("key", "g");      // go: release the hold at the first cue
         Thread.Sleep(500);
         display.XDoTool("key", "g");      // go: fire the cue standing by
