@@ -35,8 +35,8 @@ internal static class BuildComparison
                 foreach (int k in block % 2 == 0 ? [0, 1] : new[] { 1, 0 }) times[k][block] = FrameTiming.TimeBlock(frames[k], FramesPerBlock);
                 ratios[block] = times[1][block] / times[0][block];
             }
-            double medianA = FrameTiming.Quantile(times[0], 0.5), medianB = FrameTiming.Quantile(times[1], 0.5);
-            output.WriteLine($"{name,-10} {medianA,7:F3} ms {medianB,7:F3} ms {FrameTiming.Quantile(ratios, 0.5),7:F3} {$"{FrameTiming.Quantile(ratios, 0.25):F3} – {FrameTiming.Quantile(ratios, 0.75):F3}",20}");
+            double medianA = FrameTiming.Median(times[0]), medianB = FrameTiming.Median(times[1]);
+            output.WriteLine($"{name,-10} {medianA,7:F3} ms {medianB,7:F3} ms {FrameTiming.Median(ratios),7:F3} {$"{FrameTiming.Quantile(ratios, 0.25):F3} – {FrameTiming.Quantile(ratios, 0.75):F3}",20}");
         }
     }
 
@@ -74,7 +74,7 @@ internal static class BuildComparison
 /// <summary>The frames <see cref="BuildComparison"/> can time, by name, each set up as its benchmark sets it up.</summary>
 public static class FrameCases
 {
-    public const string Names = "stars, turning, skia, fullsky, fullsky3, persp3, nf24, nf48, nf96, plain";
+    public const string Names = "stars, turning, skia, fullsky, fullsky3, persp3, nf24, nf48, nf96, plain, grid";
 
     public static Action Create(string name)
     {
@@ -92,11 +92,11 @@ public static class FrameCases
                 speed.Setup();
                 return name switch { "fullsky" => speed.FullSkyAtRest, "fullsky3" => speed.FullSkyAtRapidity3, _ => speed.PerspectiveAtRapidity3 };
             }
-            case "nf24" or "nf48" or "nf96" or "plain":
+            case "nf24" or "nf48" or "nf96" or "plain" or "grid":
             {
-                var nearField = new NearFieldBenchmarks { Bands = name == "plain" ? 24 : int.Parse(name[2..]) };
+                var nearField = new NearFieldBenchmarks { Bands = name is "plain" or "grid" ? 24 : int.Parse(name[2..]) };
                 nearField.Setup();
-                return name == "plain" ? nearField.FrameWithoutNearField : nearField.FrameWithBodiesAndGrid;
+                return name switch { "plain" => nearField.FrameWithoutNearField, "grid" => nearField.GridAlone, _ => nearField.FrameWithBodiesAndGrid };
             }
             default:
                 throw new ArgumentException($"--compare-builds: no frame '{name}'; the frames are {Names}");

@@ -60,7 +60,7 @@ public class ParallelItemsTests
     }
 
     [Fact]
-    public void Loops_far_apart_in_time_still_run_on_every_thread_asked_for()
+    public void Loops_far_apart_in_time_still_run_every_item_once()
     {
         // Helpers sleep once idle for a while; a loop must wake them (or do without them) and still run every item.
         for (int loop = 0; loop < 3; loop++)
