@@ -14,14 +14,25 @@ public sealed class RgbaImage
     /// <summary>Groups of <see cref="HdrFrame.GroupWidth"/> pixels noted per entry of <see cref="LitGroups"/>.</summary>
     internal const int GroupsPerLitEntry = 16;
 
-    private readonly byte[] _pixels;
+    /// <summary>
+    /// The pixels' memory: a pinned array with room to start the image on a 64-byte boundary (<see cref="_offset"/>
+    /// bytes in), so that each row of an image whose width is a multiple of 16 pixels starts a cache line and the tone
+    /// map can write whole lines without first reading them in.
+    /// </summary>
+    private readonly byte[] _memory;
+    private readonly int _offset, _length;
 
-    public RgbaImage(int width, int height)
+    /// <summary>Bytes per cache line, the alignment of the first pixel.</summary>
+    internal const int LineBytes = 64;
+
+    public unsafe RgbaImage(int width, int height)
     {
         if (width <= 0 || height <= 0) throw new ArgumentOutOfRangeException(nameof(width), "image size must be positive");
         Width = width;
         Height = height;
-        _pixels = new byte[checked(width * height * 4)];
+        _length = checked(width * height * 4);
+        _memory = GC.AllocateArray<byte>(checked(_length + LineBytes - 1), pinned: true);
+        fixed (byte* memory = _memory) _offset = (int)(-(nint)memory & (LineBytes - 1));
         LitEntriesPerRow = (width + GroupsPerLitEntry * HdrFrame.GroupWidth - 1) / (GroupsPerLitEntry * HdrFrame.GroupWidth);
         LitGroups = new ushort[LitEntriesPerRow * height];
     }
@@ -30,20 +41,20 @@ public sealed class RgbaImage
     public int Height { get; }
 
     /// <summary>The pixels, to write (or read): taking them drops the renderer's note of which groups are lit.</summary>
-    public byte[] Pixels
+    public Span<byte> Pixels
     {
         get
         {
             LitGroupsKnown = false;
-            return _pixels;
+            return RendererPixels;
         }
     }
 
     /// <summary>The pixels, to read only: the renderer's note stays.</summary>
-    public ReadOnlySpan<byte> ReadOnlyPixels => _pixels;
+    public ReadOnlySpan<byte> ReadOnlyPixels => RendererPixels;
 
-    /// <summary>The pixels for the renderer, which keeps <see cref="LitGroups"/> true itself.</summary>
-    internal byte[] RendererPixels => _pixels;
+    /// <summary>The pixels for the renderer, which keeps <see cref="LitGroups"/> true itself; they start on a <see cref="LineBytes"/> boundary.</summary>
+    internal Span<byte> RendererPixels => _memory.AsSpan(_offset, _length);
 
     /// <summary>
     /// Per row, one entry per <see cref="GroupsPerLitEntry"/> groups: bit g set unless group g of the entry is known
@@ -61,8 +72,8 @@ public sealed class RgbaImage
     {
         get
         {
-            int offset = (y * Width + x) * 4;
-            return (_pixels[offset], _pixels[offset + 1], _pixels[offset + 2]);
+            ReadOnlySpan<byte> pixel = ReadOnlyPixels.Slice((y * Width + x) * 4, 3);
+            return (pixel[0], pixel[1], pixel[2]);
         }
     }
 }

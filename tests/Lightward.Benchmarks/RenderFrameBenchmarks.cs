@@ -97,7 +97,7 @@ public class RenderFrameBenchmarks
         Parallel.For(0, 1080 / StarSplatter.BandHeight + 1, band =>
         {
             int firstRow = band * StarSplatter.BandHeight, rows = Math.Min(StarSplatter.BandHeight, 1080 - firstRow);
-            if (rows > 0) System.Runtime.InteropServices.MemoryMarshal.Cast<byte, uint>(_baselineImage.Pixels.AsSpan(firstRow * 1920 * 4, rows * 1920 * 4)).Fill(0xFF000000u);
+            if (rows > 0) System.Runtime.InteropServices.MemoryMarshal.Cast<byte, uint>(_baselineImage.Pixels.Slice(firstRow * 1920 * 4, rows * 1920 * 4)).Fill(0xFF000000u);
         });
 }
 

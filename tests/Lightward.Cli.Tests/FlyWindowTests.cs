@@ -87,11 +87,11 @@ public class FlyWindowTests
             renderer.Render(view, frame);
             var again = new RgbaImage(320, 180);
             renderer.Render(view, again);
-            Assert.Equal(frame.Pixels, again.Pixels);
+            Assert.Equal(frame.ReadOnlyPixels, again.ReadOnlyPixels);
 
             using var headless = new HeadlessHost(320, 180);
-            headless.Present(frame.Pixels);
-            window.Present(frame.Pixels);
+            headless.Present(frame.ReadOnlyPixels);
+            window.Present(frame.ReadOnlyPixels);
 
             Assert.Equal((320, 180), (window.PresentedFrameWidth, window.PresentedFrameHeight));
             Assert.Equal(headless.LastFrame, window.PresentedFrame);

@@ -24,7 +24,7 @@ public class RenderCommandTests
         Assert.Contains("wrote", result.Stdout);
         RgbaImage image = PngWriter.Read(output);
         Assert.Equal((width, height), (image.Width, image.Height));
-        Assert.Contains(image.Pixels, b => b > 100);
+        Assert.Contains(image.ReadOnlyPixels.ToArray(), b => b > 100);
         Assert.Equal(["frame.png"], Directory.GetFiles(folder).Select(Path.GetFileName));
     }
 

@@ -36,9 +36,9 @@ public class DeterminismTests
         var scene = new Scene(Sky);
         var observer = new Observer(ship, Rotation.FromAxisAngle(Vec3.UnitY, 0.1));
         var twoThreads = new FrameRenderer(2);
-        byte[] first = twoThreads.Render(scene, observer, camera).Pixels;
-        byte[] again = twoThreads.Render(scene, observer, camera).Pixels;
-        byte[] oneThread = new FrameRenderer(1).Render(scene, observer, camera).Pixels;
+        byte[] first = twoThreads.Render(scene, observer, camera).ReadOnlyPixels.ToArray();
+        byte[] again = twoThreads.Render(scene, observer, camera).ReadOnlyPixels.ToArray();
+        byte[] oneThread = new FrameRenderer(1).Render(scene, observer, camera).ReadOnlyPixels.ToArray();
         Assert.Equal(first, again);
         Assert.Equal(first, oneThread);
         Assert.Contains(first, b => b > 40);
@@ -54,11 +54,11 @@ public class DeterminismTests
         Observer glowing = new(ShipState.AtRest(default) with { Frame = new LorentzFrame(new Velocity(12, Vec3.UnitZ), Rotation.Identity) }, Rotation.Identity);
         Observer resting = new(ShipState.AtRest(default), Rotation.Identity);
         var renderer = new FrameRenderer(2);
-        byte[] fresh = new FrameRenderer(2).Render(scene, resting, wide).Pixels;
+        byte[] fresh = new FrameRenderer(2).Render(scene, resting, wide).ReadOnlyPixels.ToArray();
         var image = new RgbaImage(160, 100);
         renderer.Render(scene, glowing, camera, image);
         renderer.Render(scene, resting, wide, image);
-        Assert.Equal(fresh, image.Pixels);
+        Assert.Equal(fresh, image.ReadOnlyPixels.ToArray());
     }
 
     [Fact]
@@ -68,11 +68,11 @@ public class DeterminismTests
         var camera = new Camera(ProjectionKind.Perspective, 320, 200, Math.PI / 2, 0, Exposure.Auto);
         var scene = new Scene(Sky);
         Observer observer = new(ShipState.AtRest(default), Rotation.Identity);
-        byte[] fresh = new FrameRenderer(2).Render(scene, observer, camera).Pixels;
+        byte[] fresh = new FrameRenderer(2).Render(scene, observer, camera).ReadOnlyPixels.ToArray();
         var image = new RgbaImage(320, 200);
-        Array.Fill(image.Pixels, (byte)0x7F);
+        image.Pixels.Fill(0x7F);
         new FrameRenderer(2).Render(scene, observer, camera, image);
-        Assert.Equal(fresh, image.Pixels);
+        Assert.Equal(fresh, image.ReadOnlyPixels.ToArray());
     }
 
     public static TheoryData<bool, bool> FrameSequences => new()
@@ -107,23 +107,30 @@ public class DeterminismTests
             NewRenderer(1).Render(scene, observer, camera, fresh);
             renderer.Render(scene, observer, camera, image);
             Assert.True(fresh.ReadOnlyPixels.SequenceEqual(image.ReadOnlyPixels), $"frame {frame} differs from a fresh render");
-            if (drawnOnBetween) image.Pixels.AsSpan(4 * 203 * 50, 4 * 203 * 3).Fill(0xC8);
+            if (drawnOnBetween) image.Pixels.Slice(4 * 203 * 50, 4 * 203 * 3).Fill(0xC8);
+        }
+    }
+
+    /// <summary>The same 60 random stars, from faint to far past white, splatted into each of <paramref name="frames"/>.</summary>
+    private static void SplatRandomStars(params HdrFrame[] frames)
+    {
+        var splatter = new StarSplatter();
+        var random = new Random(3);
+        int width = frames[0].Width, height = frames[0].Height;
+        for (int star = 0; star < 60; star++)
+        {
+            float x = (float)(random.NextDouble() * width), y = (float)(random.NextDouble() * height), flux = (float)Math.Pow(10, random.NextDouble() * 5 - 2);
+            foreach (HdrFrame frame in frames)
+                splatter.SplatOne(frame, x, y, flux, 0.7f * flux, 0.4f * flux, splatter.FootprintFor(flux), 0, height, 0, width);
         }
     }
 
     [Fact]
     public unsafe void The_sparse_tone_map_gives_the_same_bytes_as_reading_every_pixel()
     {
-        var splatter = new StarSplatter();
         var marked = new HdrFrame(203, 70);
         var whole = new HdrFrame(203, 70);
-        var random = new Random(3);
-        for (int star = 0; star < 60; star++)
-        {
-            float x = (float)(random.NextDouble() * 203), y = (float)(random.NextDouble() * 70), flux = (float)Math.Pow(10, random.NextDouble() * 5 - 2);
-            foreach (HdrFrame frame in new[] { marked, whole })
-                splatter.SplatOne(frame, x, y, flux, 0.7f * flux, 0.4f * flux, splatter.FootprintFor(flux), 0, 70, 0, 203);
-        }
+        SplatRandomStars(marked, whole);
         whole.WhollyTouched = true;
         var sparseImage = new RgbaImage(203, 70);
         var fullImage = new RgbaImage(203, 70);
@@ -132,11 +139,36 @@ public class DeterminismTests
             ToneMapper.MapAndClearRows(marked, 0.5f, (uint*)sparse, null, false, 0, 70);
             ToneMapper.MapAndClearRows(whole, 0.5f, (uint*)full, null, false, 0, 70);
         }
-        Assert.Equal(fullImage.Pixels, sparseImage.Pixels);
-        Assert.Contains(sparseImage.Pixels, b => b is > 0 and < 255);
+        Assert.Equal(fullImage.ReadOnlyPixels.ToArray(), sparseImage.ReadOnlyPixels.ToArray());
+        Assert.Contains(sparseImage.ReadOnlyPixels.ToArray(), b => b is > 0 and < 255);
         // Both leave the HDR frame zeroed and unmarked for the next frame.
         Assert.All(marked.Red, v => Assert.Equal(0f, v));
         Assert.All(marked.Touched, t => Assert.Equal(0, t));
+    }
+
+    [Theory]
+    [InlineData(false)]
+    [InlineData(true)]
+    public unsafe void Writing_whole_cache_lines_gives_the_same_bytes_as_writing_group_by_group(bool everyPixelRead)
+    {
+        // 208 px: each row is whole 64-byte lines, so an image (whose pixels start on a line) is written a line at a
+        // time; the same rows written one pixel past a line's start are written group by group.
+        const int Width = 208, Height = 40;
+        var lineByLine = new HdrFrame(Width, Height);
+        var groupByGroup = new HdrFrame(Width, Height);
+        SplatRandomStars(lineByLine, groupByGroup);
+        lineByLine.WhollyTouched = groupByGroup.WhollyTouched = everyPixelRead;
+        var image = new RgbaImage(Width, Height);
+        var offLine = new uint[Width * Height + 32];
+        fixed (byte* lines = image.Pixels)
+        fixed (uint* memory = offLine)
+        {
+            uint* groups = (uint*)(((nint)memory + 63) & ~(nint)63) + 1;
+            ToneMapper.MapAndClearRows(lineByLine, 0.5f, (uint*)lines, null, false, 0, Height);
+            ToneMapper.MapAndClearRows(groupByGroup, 0.5f, groups, null, false, 0, Height);
+            Assert.True(new ReadOnlySpan<uint>(lines, Width * Height).SequenceEqual(new ReadOnlySpan<uint>(groups, Width * Height)));
+        }
+        Assert.Contains(image.ReadOnlyPixels.ToArray(), b => b is > 0 and < 255);
     }
 
     /// <summary>A layer that draws nothing: it sends the frame down the layered path (stars splatted band by band into band buffers).</summary>
@@ -160,10 +192,10 @@ public class DeterminismTests
         {
             Frame = new LorentzFrame(new Velocity(rapidity, new Vec3(0.2, 0.1, 1).NormalizedOr(Vec3.UnitZ)), Rotation.Identity),
         }, Rotation.Identity);
-        byte[] inCache = new FrameRenderer(2).Render(scene, observer, camera).Pixels;
+        byte[] inCache = new FrameRenderer(2).Render(scene, observer, camera).ReadOnlyPixels.ToArray();
         var throughHdr = new FrameRenderer(2);
         throughHdr.Layers.Add(new EmptyLayer());
-        Assert.Equal(throughHdr.Render(scene, observer, camera).Pixels, inCache);
+        Assert.Equal(throughHdr.Render(scene, observer, camera).ReadOnlyPixels.ToArray(), inCache);
         Assert.Contains(inCache, b => b > 40);
     }
 }

@@ -43,12 +43,12 @@ public sealed class SkyRenderer(Scene scene, FrameRenderer renderer, double cock
 
     private static void CopyCentred(RgbaImage inset, RgbaImage frame)
     {
-        byte[] pixels = frame.Pixels;
-        Array.Clear(pixels);
+        Span<byte> pixels = frame.Pixels;
+        pixels.Clear();
         // Opaque black around the inset.
         for (int i = 3; i < pixels.Length; i += 4) pixels[i] = 255;
         int left = (frame.Width - inset.Width) / 2, top = (frame.Height - inset.Height) / 2, row = inset.Width * 4;
         for (int y = 0; y < inset.Height; y++)
-            inset.ReadOnlyPixels.Slice(y * row, row).CopyTo(pixels.AsSpan(((top + y) * frame.Width + left) * 4, row));
+            inset.ReadOnlyPixels.Slice(y * row, row).CopyTo(pixels.Slice(((top + y) * frame.Width + left) * 4, row));
     }
 }

@@ -49,7 +49,7 @@ public sealed class OperatorWindow : IOperatorConsole, IDisposable
     {
         if (_window.PresentedFrame is not { } pixels) return null;
         var image = new RgbaImage(_window.PresentedFrameWidth, _window.PresentedFrameHeight);
-        pixels.CopyTo(image.Pixels, 0);
+        pixels.CopyTo(image.Pixels);
         return image;
     }
 

@@ -95,13 +95,13 @@ public sealed class ShowFrameRenderer : IDisposable
 
     private static byte[] CopyOf(RgbaImage image, byte[] buffer)
     {
-        if (buffer.Length != image.Pixels.Length) buffer = new byte[image.Pixels.Length];
-        image.Pixels.CopyTo(buffer, 0);
+        if (buffer.Length != image.ReadOnlyPixels.Length) buffer = new byte[image.ReadOnlyPixels.Length];
+        image.ReadOnlyPixels.CopyTo(buffer);
         return buffer;
     }
 
     /// <summary><paramref name="with"/> becomes the mix of the two pictures, <paramref name="weight"/> 0 (without) … 1 (with).</summary>
-    private static void CrossFade(byte[] without, byte[] with, float weight)
+    private static void CrossFade(byte[] without, Span<byte> with, float weight)
     {
         for (int i = 0; i < with.Length; i++)
             with[i] = (byte)(without[i] + (with[i] - without[i]) * weight + 0.5f);
@@ -158,7 +158,7 @@ public sealed class ShowFrameRenderer : IDisposable
     {
         for (int i = 0; i < 256; i++)
             _fadeTable[i] = (byte)Math.Round(255 * SrgbTransfer.Encode(SrgbTransfer.Decode(i / 255.0) * level));
-        byte[] pixels = image.Pixels;
+        Span<byte> pixels = image.Pixels;
         for (int i = 0; i < pixels.Length; i += 4)
         {
             pixels[i] = _fadeTable[pixels[i]];
@@ -169,7 +169,7 @@ public sealed class ShowFrameRenderer : IDisposable
 
     private static void Flip(RgbaImage image, bool horizontal, bool vertical)
     {
-        Span<uint> pixels = System.Runtime.InteropServices.MemoryMarshal.Cast<byte, uint>(image.Pixels.AsSpan());
+        Span<uint> pixels = System.Runtime.InteropServices.MemoryMarshal.Cast<byte, uint>(image.Pixels);
         int width = image.Width, height = image.Height;
         if (horizontal)
             for (int y = 0; y < height; y++) pixels.Slice(y * width, width).Reverse();

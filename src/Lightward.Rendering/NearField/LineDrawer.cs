@@ -1,6 +1,7 @@
 using System.Numerics;
 using System.Runtime.CompilerServices;
 using System.Runtime.Intrinsics;
+using Lightward.Spacetime;
 
 namespace Lightward.Rendering.NearField;
 
@@ -24,30 +25,86 @@ public sealed class LineDrawer
     /// <summary>Rows beyond a segment's ends that its tent can reach.</summary>
     private const int Reach = 2;
 
-    private readonly List<List<int>> _bands = [];
-    private readonly List<Stroke> _strokes = [];
+    /// <summary>Segments sorted per work item of <see cref="SortIntoBands"/>; each item sorts its own run of segments, so the order never depends on scheduling.</summary>
+    private const int SegmentsPerChunk = 256;
+
+    /// <summary>Per chunk of segments, its strokes and their lists per band; kept between frames.</summary>
+    private readonly List<SortedChunk> _chunks = [];
+    private int _chunkCount, _bandCount;
+    private List<PixelSegment> _segments = [];
     private SkyRasterizer? _surfaces;
+    private readonly Action<int> _sortChunk;
+
+    public LineDrawer() => _sortChunk = SortChunk;
 
     /// <summary>
     /// Sorts <paramref name="segments"/> into row bands, to be drawn behind or in front of the surfaces in
     /// <paramref name="surfaces"/>; they are drawn from there until the next call. Only the size of the surface layer
     /// is read here, so the surfaces may still be being drawn: what they hold is read when the lines are drawn.
+    /// Runs of segments are prepared and sorted side by side, each into lists of its own that the drawing reads in
+    /// run order, so every band still draws its segments in their given order.
     /// </summary>
-    public void SortIntoBands(List<PixelSegment> segments, SkyRasterizer surfaces)
+    public void SortIntoBands(List<PixelSegment> segments, SkyRasterizer surfaces, ParallelOptions parallel)
     {
         _surfaces = surfaces;
-        _strokes.Clear();
+        _segments = segments;
+        _bandCount = (surfaces.Height + BandRows - 1) / BandRows;
+        _chunkCount = (segments.Count + SegmentsPerChunk - 1) / SegmentsPerChunk;
+        while (_chunks.Count < _chunkCount) _chunks.Add(new SortedChunk());
+        ParallelItems.For(0, _chunkCount, parallel, _sortChunk);
+    }
+
+    /// <summary>Prepares chunk <paramref name="chunk"/>'s segments as strokes and lists each under every band its pixels can reach, in order (a counting sort).</summary>
+    private void SortChunk(int chunk)
+    {
+        SkyRasterizer surfaces = _surfaces!;
         int height = surfaces.Height;
-        int bandCount = (height + BandRows - 1) / BandRows;
-        while (_bands.Count < bandCount) _bands.Add([]);
-        for (int band = 0; band < bandCount; band++) _bands[band].Clear();
-        foreach (PixelSegment segment in segments)
+        SortedChunk sorted = _chunks[chunk];
+        sorted.Begin(_bandCount);
+        ReadOnlySpan<PixelSegment> segments = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_segments);
+        int end = Math.Min(segments.Length, (chunk + 1) * SegmentsPerChunk);
+        for (int i = chunk * SegmentsPerChunk; i < end; i++)
         {
+            ref readonly PixelSegment segment = ref segments[i];
             float low = MathF.Min(segment.Y0, segment.Y1) - Reach, high = MathF.Max(segment.Y0, segment.Y1) + Reach;
-            if (!(high >= 0 && low < height) || !Stroke.TryPrepare(segment, surfaces.Width, surfaces.Height, out Stroke stroke)) continue;
-            int first = Math.Max(0, (int)low / BandRows), last = Math.Min(bandCount - 1, (int)high / BandRows);
-            for (int band = first; band <= last; band++) _bands[band].Add(_strokes.Count);
-            _strokes.Add(stroke);
+            if (!(high >= 0 && low < height) || !Stroke.TryPrepare(segment, surfaces.Width, height, out Stroke stroke)) continue;
+            sorted.Add(stroke, Math.Max(0, (int)low / BandRows), Math.Min(_bandCount - 1, (int)high / BandRows));
+        }
+        sorted.SortIntoBands();
+    }
+
+    /// <summary>One chunk's strokes in order, with the first and last band of each, and for each band the (ordered) indices of those reaching into it.</summary>
+    private sealed class SortedChunk
+    {
+        public readonly List<Stroke> Strokes = [];
+        private readonly List<(int First, int Last)> _bands = [];
+        /// <summary>Where each band's indices start in <see cref="Order"/>; band b's run ends where band b + 1's starts.</summary>
+        public int[] BandStart = [];
+        public int[] Order = [];
+
+        public void Begin(int bandCount)
+        {
+            Strokes.Clear();
+            _bands.Clear();
+            if (BandStart.Length != bandCount + 1) BandStart = new int[bandCount + 1];
+            else Array.Clear(BandStart);
+        }
+
+        public void Add(in Stroke stroke, int firstBand, int lastBand)
+        {
+            Strokes.Add(stroke);
+            _bands.Add((firstBand, lastBand));
+            for (int band = firstBand; band <= lastBand; band++) BandStart[band + 1]++;
+        }
+
+        public void SortIntoBands()
+        {
+            for (int band = 1; band < BandStart.Length; band++) BandStart[band] += BandStart[band - 1];
+            if (Order.Length < BandStart[^1]) Order = new int[Math.Max(BandStart[^1], 2 * Order.Length)];
+            Span<int> next = stackalloc int[BandStart.Length];
+            BandStart.CopyTo(next);
+            for (int k = 0; k < _bands.Count; k++)
+                for (int band = _bands[k].First; band <= _bands[k].Last; band++) Order[next[band]++] = k;
         }
     }
 
@@ -58,7 +115,6 @@ public sealed class LineDrawer
         HdrFrame buffer = rows.Buffer;
         if (buffer.Width != surfaces.Width || rows.EndRow > surfaces.Height || rows.EndRow - rows.Origin > buffer.Height || rows.FirstRow < rows.Origin)
             throw new ArgumentException("rows and surface layer differ in size", nameof(rows));
-        ReadOnlySpan<Stroke> strokes = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_strokes);
         fixed (float* red = buffer.Red, green = buffer.Green, blue = buffer.Blue, depth = surfaces.Depths)
         fixed (byte* touched = buffer.Touched)
         for (int band = rows.FirstRow / BandRows; band * BandRows < rows.EndRow; band++)
@@ -66,15 +122,20 @@ public sealed class LineDrawer
             int top = Math.Max(rows.FirstRow, band * BandRows), bottom = Math.Min(rows.EndRow, (band + 1) * BandRows);
             // Most bands hold no surface at all: their segments need not be tested one by one.
             bool bandMeetsSurface = surfaces.MayHaveSurfaceIn(0, top, surfaces.Width - 1, bottom - 1, Reach);
-            foreach (int k in _bands[band])
+            for (int chunk = 0; chunk < _chunkCount; chunk++)
             {
-                ref readonly Stroke stroke = ref strokes[k];
-                // Most segments pass no surface and cross only pixels that show sky: those skip the per-pixel depth and
-                // sky tests, which keeps a pixel's memory traffic to its three colour planes.
-                var line = new Line(stroke, colourScale, new Pixels(red, green, blue, touched, depth, surfaces.Sky, rows),
-                    bandMeetsSurface && stroke.MayMeetSurface(surfaces, top, bottom), surfaces.Sky.HasBlankPixels);
-                if (line.TestsPixels) line.Draw<EveryPixelTested>(top, bottom);
-                else line.Draw<NoPixelTested>(top, bottom);
+                SortedChunk sorted = _chunks[chunk];
+                ReadOnlySpan<Stroke> strokes = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(sorted.Strokes);
+                for (int j = sorted.BandStart[band]; j < sorted.BandStart[band + 1]; j++)
+                {
+                    ref readonly Stroke stroke = ref strokes[sorted.Order[j]];
+                    // Most segments pass no surface and cross only pixels that show sky: those skip the per-pixel depth and
+                    // sky tests, which keeps a pixel's memory traffic to its three colour planes.
+                    var line = new Line(stroke, colourScale, new Pixels(red, green, blue, touched, depth, surfaces.Sky, rows),
+                        bandMeetsSurface && stroke.MayMeetSurface(surfaces, top, bottom), surfaces.Sky.HasBlankPixels);
+                    if (line.TestsPixels) line.Draw<EveryPixelTested>(top, bottom);
+                    else line.Draw<NoPixelTested>(top, bottom);
+                }
             }
         }
     }
@@ -199,20 +260,20 @@ public sealed class LineDrawer
         private void DrawRowsOfColumns<TTests>(int top, int bottom) where TTests : struct, IPixelTests
         {
             int firstRow = ToInt(Math.Max(top, MathF.Floor(_lowY) - Reach)), lastRow = ToInt(Math.Min(bottom - 1, MathF.Ceiling(_highY) + Reach));
-            // Major change per unit of minor; the tent reaches at most 1 / perpendicular ≤ √2 pixels across.
-            float slope = _minorChange * _inverseSpan, inverseSlope = 1 / slope;
+            // Major change per unit of minor; the tent reaches 1 / perpendicular (at most √2) pixels across.
+            float slope = _minorChange * _inverseSpan, inverseSlope = 1 / slope, reach = 1 / _perpendicular;
             for (int y = firstRow; y <= lastRow; y++)
             {
                 float centre = y + 0.5f;
                 int from = _first, to = _last;
                 if (slope != 0)
                 {
-                    // Major coordinates where the line is 1.5 px above and below this row's centre, widened by a pixel for rounding.
-                    float u0 = _start + (centre - 1.5f - _minorStart) * inverseSlope, u1 = _start + (centre + 1.5f - _minorStart) * inverseSlope;
+                    // Major coordinates where the line is the tent's reach above and below this row's centre, widened by a pixel for rounding.
+                    float u0 = _start + (centre - reach - _minorStart) * inverseSlope, u1 = _start + (centre + reach - _minorStart) * inverseSlope;
                     from = ToInt(Math.Max(_first, MathF.Floor(MathF.Min(u0, u1)) - 1));
                     to = ToInt(Math.Min(_last, MathF.Ceiling(MathF.Max(u0, u1)) + 1));
                 }
-                else if (!(MathF.Abs(centre - _minorStart) < 1.5f)) continue;
+                else if (!(MathF.Abs(centre - _minorStart) < reach)) continue;
                 for (int x = from; x <= to; x += VectorLanes.Count)
                 {
                     Vector256<float> t = (Vector256.Create((float)x) + VectorLanes.Centres - Vector256.Create(_start)) * Vector256.Create(_inverseSpan);

@@ -105,7 +105,7 @@ public sealed class NearFieldLayer : IFrameLayer
     {
         _segments.Clear();
         if (Grid is not null) _gridImager.Trace(Grid, ship, cameraToShip, rasterizer.View, rasterizer.Projection, _segments, parallel);
-        _lineDrawer.SortIntoBands(_segments, rasterizer);
+        _lineDrawer.SortIntoBands(_segments, rasterizer, parallel);
     }
 
     /// <summary>

@@ -39,7 +39,7 @@ public class OperatorScreenTests
     public void The_dome_preview_shows_the_dome_picture()
     {
         var dome = new RgbaImage(64, 64);
-        Array.Fill(dome.Pixels, (byte)255);
+        dome.Pixels.Fill(255);
         using var screen = new OperatorScreen();
         screen.Draw(Operator(), null, dome, "silent");
         SKRectI area = OperatorScreen.PreviewArea;

@@ -123,10 +123,10 @@ public class NearFieldLookTests
         RgbaImage low = RenderFrame(layer, new Camera(ProjectionKind.Perspective, 160, 90, Math.PI / 2, 0, Exposure.Manual(-20)), observer, dark);
         RgbaImage high = RenderFrame(layer, new Camera(ProjectionKind.Perspective, 160, 90, Math.PI / 2, 0, Exposure.Manual(20)), observer, dark);
         int lit = 0;
-        for (int i = 0; i < low.Pixels.Length; i++)
+        for (int i = 0; i < low.ReadOnlyPixels.Length; i++)
         {
-            Assert.InRange(high.Pixels[i] - low.Pixels[i], -1, 1);
-            if (i % 4 != 3 && low.Pixels[i] > 0) lit++;
+            Assert.InRange(high.ReadOnlyPixels[i] - low.ReadOnlyPixels[i], -1, 1);
+            if (i % 4 != 3 && low.ReadOnlyPixels[i] > 0) lit++;
         }
         Assert.True(lit > 1000, $"{lit} lit channels");
     }
@@ -142,8 +142,8 @@ public class NearFieldLookTests
         var dark = new Scene(new StarCatalog([], [], [], [], []), ShowCosmicBackground: false);
         RgbaImage ahead = RenderFrame(layer, camera, new Observer(ship, Rotation.Identity), dark);
         RgbaImage behind = RenderFrame(layer, camera, new Observer(ship, Rotation.FromAxisAngle(Vec3.UnitY, Math.PI)), dark);
-        Assert.True(ahead.Pixels.Where((value, i) => i % 4 != 3).Max() < 255, "no channel of a line ahead is clipped");
-        Assert.True(behind.Pixels.Where((value, i) => i % 4 != 3).Max() > 40, "lines behind are still visible");
+        Assert.True(ahead.ReadOnlyPixels.ToArray().Where((value, i) => i % 4 != 3).Max() < 255, "no channel of a line ahead is clipped");
+        Assert.True(behind.ReadOnlyPixels.ToArray().Where((value, i) => i % 4 != 3).Max() > 40, "lines behind are still visible");
     }
 
     [Fact]

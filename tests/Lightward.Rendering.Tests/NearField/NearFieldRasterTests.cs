@@ -86,7 +86,7 @@ public class NearFieldRasterTests
         {
             var renderer = new FrameRenderer(threads);
             renderer.Layers.Add(Layer());
-            return renderer.Render(scene, new Observer(ship, Rotation.Identity), camera).Pixels;
+            return renderer.Render(scene, new Observer(ship, Rotation.Identity), camera).ReadOnlyPixels.ToArray();
         }
         byte[] one = Render(1);
         Assert.Equal(one, Render(2));
@@ -113,7 +113,7 @@ public class NearFieldRasterTests
             var observer = new Observer(NearFieldImages.ShipAtRest(time: 0.5 * frame), look);
             var fresh = new FrameRenderer(1);
             fresh.Layers.Add(Layer());
-            byte[] expected = fresh.Render(scene, observer, camera).Pixels;
+            byte[] expected = fresh.Render(scene, observer, camera).ReadOnlyPixels.ToArray();
             renderer.Render(scene, observer, camera, image);
             Assert.True(expected.AsSpan().SequenceEqual(image.Pixels), $"frame {frame} differs from a fresh render");
         }
