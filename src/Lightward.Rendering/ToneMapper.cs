@@ -260,21 +260,44 @@ public static class ToneMapper
     }
 
     /// <summary>
-    /// Eight pixels at once (AVX2): gather the encoded curve, pack RGBA, zero the HDR values. The table is bytes (20 KB,
+    /// Eight pixels at once (AVX2): look up the encoded curve, pack RGBA, zero the HDR values. The table is bytes (20 KB,
     /// which stays in the first-level cache beside a tile, where ints would take 80 KB), gathered as ints at byte
-    /// offsets and cut to their low byte, so it carries <see cref="TablePadding"/> bytes past its last entry.
+    /// offsets and cut to their low byte, so it carries <see cref="TablePadding"/> bytes past its last entry. Most
+    /// groups show one star or one line across them, lit in two pixels or fewer: those two are looked up one by one,
+    /// since a gather costs as much as a dozen single lookups here whatever it gathers (unlit pixels have index 0,
+    /// whose code is 0, so they are black either way).
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static unsafe Vector256<int> MapGroup(float* red, float* green, float* blue, Vector256<float> scale, byte* table)
     {
-        Vector256<int> lowByte = Vector256.Create(0xFF);
-        Vector256<int> r = Avx2.GatherVector256((int*)table, TableIndex(Avx.LoadVector256(red) * scale), 1) & lowByte;
-        Vector256<int> g = Avx2.GatherVector256((int*)table, TableIndex(Avx.LoadVector256(green) * scale), 1) & lowByte;
-        Vector256<int> b = Avx2.GatherVector256((int*)table, TableIndex(Avx.LoadVector256(blue) * scale), 1) & lowByte;
+        Vector256<int> r = TableIndex(Avx.LoadVector256(red) * scale), g = TableIndex(Avx.LoadVector256(green) * scale), b = TableIndex(Avx.LoadVector256(blue) * scale);
         Avx.Store(red, Vector256<float>.Zero);
         Avx.Store(green, Vector256<float>.Zero);
         Avx.Store(blue, Vector256<float>.Zero);
-        return r | Avx2.ShiftLeftLogical(g, 8) | Avx2.ShiftLeftLogical(b, 16) | Vector256.Create(unchecked((int)OpaqueBlack));
+        uint lit = Vector256.GreaterThan(r | g | b, Vector256<int>.Zero).ExtractMostSignificantBits();
+        var black = Vector256.Create(unchecked((int)OpaqueBlack));
+        if (BitOperations.PopCount(lit) <= 2)
+        {
+            // The first and last lit pixel (the same one when only one is lit; pixel 0, black, when none is).
+            int first = BitOperations.TrailingZeroCount(lit | 1u << 31) & 7, last = 31 - BitOperations.LeadingZeroCount(lit | 1);
+            Vector256<int> lanes = Vector256.Create(0, 1, 2, 3, 4, 5, 6, 7);
+            return Vector256.ConditionalSelect(Vector256.Equals(lanes, Vector256.Create(first)), Vector256.Create(Encode(r, g, b, first, table)),
+                Vector256.ConditionalSelect(Vector256.Equals(lanes, Vector256.Create(last)), Vector256.Create(Encode(r, g, b, last, table)), black));
+        }
+        Vector256<int> lowByte = Vector256.Create(0xFF);
+        r = Avx2.GatherVector256((int*)table, r, 1) & lowByte;
+        g = Avx2.GatherVector256((int*)table, g, 1) & lowByte;
+        b = Avx2.GatherVector256((int*)table, b, 1) & lowByte;
+        return r | Avx2.ShiftLeftLogical(g, 8) | Avx2.ShiftLeftLogical(b, 16) | black;
+    }
+
+    /// <summary>The RGBA code of pixel <paramref name="lane"/> of a group, from its table entries.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe int Encode(Vector256<int> red, Vector256<int> green, Vector256<int> blue, int lane, byte* table)
+    {
+        Vector256<int> pick = Vector256.Create(lane);
+        return table[Avx2.PermuteVar8x32(red, pick).ToScalar()] | table[Avx2.PermuteVar8x32(green, pick).ToScalar()] << 8
+            | table[Avx2.PermuteVar8x32(blue, pick).ToScalar()] << 16 | unchecked((int)OpaqueBlack);
     }
 
     /// <summary><see cref="MapGroup"/> stored to <paramref name="rgba"/>.</summary>
