@@ -51,6 +51,48 @@ public class SrgbTransferTests
         }
     }
 
+    [Theory]
+    [InlineData(203, false)]
+    [InlineData(203, true)]
+    [InlineData(208, false)]
+    [InlineData(208, true)]
+    public unsafe void Every_path_of_the_image_tone_map_writes_the_tables_code_for_each_pixel(int width, bool everyPixelRead)
+    {
+        // Groups of eight pixels with 0, 1, 2, 3 or 8 lit pixels (looked up one by one or gathered), odd values (NaN,
+        // negative, past white), a partial group at the right edge of 203 px, whole cache lines at 208 px: each
+        // written pixel must be the scalar table's code for its channels (the table is checked against the published
+        // curve and encoding above), alpha 255.
+        const int Height = 12;
+        const float Scale = 0.75f;
+        var hdr = new HdrFrame(width, Height);
+        var random = new Random(5);
+        float[] odd = [float.NaN, -2, 1e9f, ToneMapper.White, 1e-7f];
+        for (int row = 0; row < Height; row++)
+            for (int group = 0; group * HdrFrame.GroupWidth < width; group++)
+            {
+                int lit = new[] { 0, 1, 2, 3, 8 }[(row + group) % 5];
+                for (int k = 0; k < lit; k++)
+                {
+                    int x = group * HdrFrame.GroupWidth + random.Next(HdrFrame.GroupWidth), i = row * width + x;
+                    if (x >= width) continue;
+                    float Value() => random.Next(10) == 0 ? odd[random.Next(odd.Length)] : (float)Math.Pow(10, random.NextDouble() * 6 - 4);
+                    (hdr.Red[i], hdr.Green[i], hdr.Blue[i]) = (Value(), Value(), Value());
+                }
+                hdr.MarkTouched(row, group * HdrFrame.GroupWidth, Math.Min(width, (group + 1) * HdrFrame.GroupWidth));
+            }
+        hdr.WhollyTouched = everyPixelRead;
+        float[] red = [.. hdr.Red], green = [.. hdr.Green], blue = [.. hdr.Blue];
+        var image = new RgbaImage(width, Height);
+        fixed (byte* pixels = image.Pixels)
+            ToneMapper.MapAndClearRows(hdr, Scale, (uint*)pixels, null, false, 0, Height);
+        for (int i = 0; i < width * Height; i++)
+        {
+            (byte r, byte g, byte b) = image[i % width, i / width];
+            Assert.Equal((ToneMapper.Code(red[i] * Scale), ToneMapper.Code(green[i] * Scale), ToneMapper.Code(blue[i] * Scale)), (r, g, b));
+            Assert.Equal(255, image.ReadOnlyPixels[4 * i + 3]);
+        }
+    }
+
     [Fact]
     public void The_tone_curve_is_monotonic_reaches_white_at_the_white_point_and_never_leaves_0_to_1()
     {
