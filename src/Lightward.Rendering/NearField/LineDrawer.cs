@@ -60,7 +60,8 @@ public sealed class LineDrawer
         SkyRasterizer surfaces = _surfaces!;
         int height = surfaces.Height;
         SortedChunk sorted = _chunks[chunk];
-        sorted.Begin(_bandCount);
+        sorted.Strokes.Clear();
+        sorted.Bands.Clear(_bandCount);
         ReadOnlySpan<PixelSegment> segments = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_segments);
         int end = Math.Min(segments.Length, (chunk + 1) * SegmentsPerChunk);
         for (int i = chunk * SegmentsPerChunk; i < end; i++)
@@ -68,44 +69,17 @@ public sealed class LineDrawer
             ref readonly PixelSegment segment = ref segments[i];
             float low = MathF.Min(segment.Y0, segment.Y1) - Reach, high = MathF.Max(segment.Y0, segment.Y1) + Reach;
             if (!(high >= 0 && low < height) || !Stroke.TryPrepare(segment, surfaces.Width, height, out Stroke stroke)) continue;
-            sorted.Add(stroke, Math.Max(0, (int)low / BandRows), Math.Min(_bandCount - 1, (int)high / BandRows));
+            sorted.Strokes.Add(stroke);
+            sorted.Bands.Add(Math.Max(0, (int)low / BandRows), Math.Min(_bandCount - 1, (int)high / BandRows));
         }
-        sorted.SortIntoBands();
+        sorted.Bands.Sort();
     }
 
-    /// <summary>One chunk's strokes in order, with the first and last band of each, and for each band the (ordered) indices of those reaching into it.</summary>
+    /// <summary>One chunk's strokes in order, listed under each row band they reach.</summary>
     private sealed class SortedChunk
     {
         public readonly List<Stroke> Strokes = [];
-        private readonly List<(int First, int Last)> _bands = [];
-        /// <summary>Where each band's indices start in <see cref="Order"/>; band b's run ends where band b + 1's starts.</summary>
-        public int[] BandStart = [];
-        public int[] Order = [];
-
-        public void Begin(int bandCount)
-        {
-            Strokes.Clear();
-            _bands.Clear();
-            if (BandStart.Length != bandCount + 1) BandStart = new int[bandCount + 1];
-            else Array.Clear(BandStart);
-        }
-
-        public void Add(in Stroke stroke, int firstBand, int lastBand)
-        {
-            Strokes.Add(stroke);
-            _bands.Add((firstBand, lastBand));
-            for (int band = firstBand; band <= lastBand; band++) BandStart[band + 1]++;
-        }
-
-        public void SortIntoBands()
-        {
-            for (int band = 1; band < BandStart.Length; band++) BandStart[band] += BandStart[band - 1];
-            if (Order.Length < BandStart[^1]) Order = new int[Math.Max(BandStart[^1], 2 * Order.Length)];
-            Span<int> next = stackalloc int[BandStart.Length];
-            BandStart.CopyTo(next);
-            for (int k = 0; k < _bands.Count; k++)
-                for (int band = _bands[k].First; band <= _bands[k].Last; band++) Order[next[band]++] = k;
-        }
+        public readonly BandLists Bands = new();
     }
 
     /// <summary>Draws the sorted segments into the rows of <paramref name="rows"/>, with their colours multiplied by <paramref name="colourScale"/>.</summary>
@@ -126,9 +100,9 @@ public sealed class LineDrawer
             {
                 SortedChunk sorted = _chunks[chunk];
                 ReadOnlySpan<Stroke> strokes = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(sorted.Strokes);
-                for (int j = sorted.BandStart[band]; j < sorted.BandStart[band + 1]; j++)
+                foreach (int k in sorted.Bands.In(band))
                 {
-                    ref readonly Stroke stroke = ref strokes[sorted.Order[j]];
+                    ref readonly Stroke stroke = ref strokes[k];
                     // Most segments pass no surface and cross only pixels that show sky: those skip the per-pixel depth and
                     // sky tests, which keeps a pixel's memory traffic to its three colour planes.
                     var line = new Line(stroke, colourScale, new Pixels(red, green, blue, touched, depth, surfaces.Sky, rows),

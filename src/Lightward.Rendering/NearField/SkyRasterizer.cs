@@ -122,7 +122,7 @@ public sealed class SkyRasterizer
     public void BeginParts(int partCount)
     {
         _partCount = partCount;
-        while (_parts.Count < partCount) _parts.Add(new PreparedPart(_bandCount));
+        while (_parts.Count < partCount) _parts.Add(new PreparedPart());
     }
 
     /// <summary>Prepares part <paramref name="part"/>: <paramref name="triangles"/> (front-facing; winding is taken from the directions), in order.</summary>
@@ -131,7 +131,9 @@ public sealed class SkyRasterizer
         PreparedPart output = _parts[part];
         output.Triangles.Clear();
         foreach (ref readonly SkyTriangle triangle in triangles) Prepare(triangle, 0, output.Triangles);
-        output.SortIntoBands();
+        output.Bands.Clear(_bandCount);
+        foreach (ref readonly PreparedTriangle prepared in CollectionsMarshal.AsSpan(output.Triangles)) output.Bands.Add(prepared.MinY / BandRows, prepared.MaxY / BandRows);
+        output.Bands.Sort();
     }
 
     /// <summary>Rasterises the prepared parts into the layer, in part order, emptying each band of what was drawn before <see cref="Clear"/> first.</summary>
@@ -412,28 +414,11 @@ public sealed class SkyRasterizer
             for (int tile = x0 / TileSize; tile <= x1 / TileSize; tile++) _dirtyTiles[tileRow * _tileColumns + tile] = true;
     }
 
-    /// <summary>One part's prepared triangles, in order, with for each row band the (ordered) indices of those reaching into it.</summary>
-    private sealed class PreparedPart(int bandCount)
+    /// <summary>One part's prepared triangles, in order, listed under each row band they reach.</summary>
+    private sealed class PreparedPart
     {
         public readonly List<PreparedTriangle> Triangles = [];
-        /// <summary>Where each band's indices start in <see cref="Order"/>; band b's run ends where band b + 1's starts.</summary>
-        public readonly int[] BandStart = new int[bandCount + 1];
-        public int[] Order = [];
-
-        /// <summary>Lists each triangle under every band it reaches, keeping the order within each band (a counting sort).</summary>
-        public void SortIntoBands()
-        {
-            Array.Clear(BandStart);
-            ReadOnlySpan<PreparedTriangle> triangles = CollectionsMarshal.AsSpan(Triangles);
-            foreach (ref readonly PreparedTriangle t in triangles)
-                for (int band = t.MinY / BandRows; band <= t.MaxY / BandRows; band++) BandStart[band + 1]++;
-            for (int band = 1; band < BandStart.Length; band++) BandStart[band] += BandStart[band - 1];
-            if (Order.Length < BandStart[^1]) Order = new int[Math.Max(BandStart[^1], 2 * Order.Length)];
-            Span<int> next = stackalloc int[BandStart.Length];
-            BandStart.CopyTo(next);
-            for (int k = 0; k < triangles.Length; k++)
-                for (int band = triangles[k].MinY / BandRows; band <= triangles[k].MaxY / BandRows; band++) Order[next[band]++] = k;
-        }
+        public readonly BandLists Bands = new();
     }
 
     /// <summary>
@@ -473,9 +458,9 @@ public sealed class SkyRasterizer
             {
                 PreparedPart prepared = _parts[part];
                 ReadOnlySpan<PreparedTriangle> triangles = CollectionsMarshal.AsSpan(prepared.Triangles);
-                for (int j = prepared.BandStart[band]; j < prepared.BandStart[band + 1]; j++)
+                foreach (int k in prepared.Bands.In(band))
                 {
-                    ref readonly PreparedTriangle t = ref triangles[prepared.Order[j]];
+                    ref readonly PreparedTriangle t = ref triangles[k];
                     for (int boxIndex = 0; boxIndex < t.BoxCount; boxIndex++)
                     {
                         (int x0, int y0, int x1, int y1) = t.Box(boxIndex);
