@@ -74,7 +74,7 @@ internal static class BuildComparison
 /// <summary>The frames <see cref="BuildComparison"/> can time, by name, each set up as its benchmark sets it up.</summary>
 public static class FrameCases
 {
-    public const string Names = "stars, turning, skia, fullsky, fullsky3, persp3, nf24, nf48, nf96, plain, grid";
+    public const string Names = "stars, turning, skia, fullsky, fullsky3, persp3, nf24, nf48, nf96, plain, grid, bodies";
 
     public static Action Create(string name)
     {
@@ -92,11 +92,11 @@ public static class FrameCases
                 speed.Setup();
                 return name switch { "fullsky" => speed.FullSkyAtRest, "fullsky3" => speed.FullSkyAtRapidity3, _ => speed.PerspectiveAtRapidity3 };
             }
-            case "nf24" or "nf48" or "nf96" or "plain" or "grid":
+            case "nf24" or "nf48" or "nf96" or "plain" or "grid" or "bodies":
             {
-                var nearField = new NearFieldBenchmarks { Bands = name is "plain" or "grid" ? 24 : int.Parse(name[2..]) };
+                var nearField = new NearFieldBenchmarks { Bands = name is "plain" or "grid" or "bodies" ? 24 : int.Parse(name[2..]) };
                 nearField.Setup();
-                return name switch { "plain" => nearField.FrameWithoutNearField, "grid" => nearField.GridAlone, _ => nearField.FrameWithBodiesAndGrid };
+                return name switch { "plain" => nearField.FrameWithoutNearField, "grid" => nearField.GridAlone, "bodies" => nearField.BodiesAlone, _ => nearField.FrameWithBodiesAndGrid };
             }
             default:
                 throw new ArgumentException($"--compare-builds: no frame '{name}'; the frames are {Names}");

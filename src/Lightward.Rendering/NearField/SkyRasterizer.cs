@@ -476,6 +476,7 @@ public sealed class SkyRasterizer
     }
 
     /// <summary>Pixels [<paramref name="x0"/>, <paramref name="x1"/>] of row <paramref name="y"/>, eight at a time.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private unsafe void FillRow(in PreparedTriangle t, int boxIndex, int y, int x0, int x1, in PixelPointers pixels)
     {
         const int Lanes = VectorLanes.Count;
@@ -491,7 +492,7 @@ public sealed class SkyRasterizer
                     wanted = Vector256.AndNot(wanted, (Vector256.GreaterThanOrEqual(column, Vector256.Create(bx0)) & Vector256.LessThanOrEqual(column, Vector256.Create(bx1))).AsSingle());
             }
             int i = y * Width + x;
-            if (x + Lanes <= Width) Shade(t, pixels.At(i), wanted);
+            if (x + Lanes <= Width) Shade(t, pixels, i, wanted);
             else ShadeRowEnd(t, pixels.At(i), Width - x, wanted);
         }
     }
@@ -505,31 +506,32 @@ public sealed class SkyRasterizer
     {
         PixelPointers.Lane8 copy = default;
         PixelPointers part = copy.Load(at, count);
-        Shade(t, part, wanted);
+        Shade(t, part, 0, wanted);
         copy.StoreSurface(at, count);
     }
 
     /// <summary>Shades eight pixels for a triangle and blends the covered ones that are <paramref name="wanted"/> into the layer.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static unsafe void Shade(in PreparedTriangle t, in PixelPointers at, Vector256<float> wanted)
+    private static unsafe void Shade(in PreparedTriangle t, in PixelPointers pixels, int i, Vector256<float> wanted)
     {
-        Vector256<float> covered = wanted & t.Cover(Vector256.Load(at.X), Vector256.Load(at.Y), Vector256.Load(at.Z),
+        Vector256<float> covered = wanted & t.Cover(Vector256.Load(pixels.X + i), Vector256.Load(pixels.Y + i), Vector256.Load(pixels.Z + i),
             out Vector256<float> weightA, out Vector256<float> weightB, out Vector256<float> weightC, out Vector256<float> coverage);
         // Most of the eight pixels searched around a small triangle lie outside it: only covered ones are interpolated.
         if (covered == Vector256<float>.Zero) return;
         t.Interpolate(weightA, weightB, weightC, out Vector256<float> depth, out Vector256<float> red, out Vector256<float> green, out Vector256<float> blue);
         // Nearest surface in front; a partly covered pixel shows what lies behind it through the uncovered part.
-        Vector256<float> oldRed = Vector256.Load(at.Red), oldGreen = Vector256.Load(at.Green), oldBlue = Vector256.Load(at.Blue);
-        Vector256<float> oldAlpha = Vector256.Load(at.Alpha), oldDepth = Vector256.Load(at.Depth);
+        float* redAt = pixels.Red + i, greenAt = pixels.Green + i, blueAt = pixels.Blue + i, alphaAt = pixels.Alpha + i, depthAt = pixels.Depth + i;
+        Vector256<float> oldRed = Vector256.Load(redAt), oldGreen = Vector256.Load(greenAt), oldBlue = Vector256.Load(blueAt);
+        Vector256<float> oldAlpha = Vector256.Load(alphaAt), oldDepth = Vector256.Load(depthAt);
         Vector256<float> one = Vector256<float>.One;
         Vector256<float> front = covered & Vector256.LessThan(depth, oldDepth);
         Vector256<float> through = Vector256.AndNot(covered, front) & Vector256.LessThan(oldAlpha, one);
         Vector256<float> behind = one - coverage, seen = (one - oldAlpha) * coverage;
-        Vector256.ConditionalSelect(front, coverage * red + behind * oldRed, Vector256.ConditionalSelect(through, oldRed + seen * red, oldRed)).Store(at.Red);
-        Vector256.ConditionalSelect(front, coverage * green + behind * oldGreen, Vector256.ConditionalSelect(through, oldGreen + seen * green, oldGreen)).Store(at.Green);
-        Vector256.ConditionalSelect(front, coverage * blue + behind * oldBlue, Vector256.ConditionalSelect(through, oldBlue + seen * blue, oldBlue)).Store(at.Blue);
-        Vector256.ConditionalSelect(front, coverage + behind * oldAlpha, Vector256.ConditionalSelect(through, oldAlpha + seen, oldAlpha)).Store(at.Alpha);
-        Vector256.ConditionalSelect(front, depth, oldDepth).Store(at.Depth);
+        Vector256.ConditionalSelect(front, coverage * red + behind * oldRed, Vector256.ConditionalSelect(through, oldRed + seen * red, oldRed)).Store(redAt);
+        Vector256.ConditionalSelect(front, coverage * green + behind * oldGreen, Vector256.ConditionalSelect(through, oldGreen + seen * green, oldGreen)).Store(greenAt);
+        Vector256.ConditionalSelect(front, coverage * blue + behind * oldBlue, Vector256.ConditionalSelect(through, oldBlue + seen * blue, oldBlue)).Store(blueAt);
+        Vector256.ConditionalSelect(front, coverage + behind * oldAlpha, Vector256.ConditionalSelect(through, oldAlpha + seen, oldAlpha)).Store(alphaAt);
+        Vector256.ConditionalSelect(front, depth, oldDepth).Store(depthAt);
     }
 
     /// <summary>The layer's planes, one float per pixel each, reused from frame to frame.</summary>
@@ -597,11 +599,11 @@ public sealed class SkyRasterizer
     /// <summary>A triangle ready for the per-pixel tests: oriented side planes, corner data and up to three pixel boxes.</summary>
     private struct PreparedTriangle
     {
-        private readonly Vector3 _sideBC, _sideCA, _sideAB;
+        private readonly FloatTriple _sideBC, _sideCA, _sideAB;
         /// <summary>Per side: pixels per unit of side-plane weight (outline sides), or 0 for an inner side with a hard edge.</summary>
         private readonly float _rampBC, _rampCA, _rampAB;
         private readonly float _depthA, _depthB, _depthC;
-        private readonly Vector3 _colourA, _colourB, _colourC;
+        private readonly FloatTriple _colourA, _colourB, _colourC;
         private int _box0X0, _box0Y0, _box0X1, _box0Y1, _box1X0, _box1Y0, _box1X1, _box1Y1, _box2X0, _box2Y0, _box2X1, _box2Y1;
 
         public PreparedTriangle(in SkyTriangle t, float pixelsPerRadian)
@@ -609,13 +611,13 @@ public sealed class SkyRasterizer
             // Side planes through the eye, oriented so the inside is positive whichever way the corners wind.
             Vector3 bc = Vector3.Cross(t.DirectionB, t.DirectionC), ca = Vector3.Cross(t.DirectionC, t.DirectionA), ab = Vector3.Cross(t.DirectionA, t.DirectionB);
             float sign = Vector3.Dot(t.DirectionA, bc) < 0 ? -1 : 1;
-            _sideBC = sign * bc; _sideCA = sign * ca; _sideAB = sign * ab;
+            _sideBC = new FloatTriple(sign * bc); _sideCA = new FloatTriple(sign * ca); _sideAB = new FloatTriple(sign * ab);
             // weight / |side normal| is the sine of the angle to the side's great circle.
             _rampBC = (t.OutlineSides & 2) != 0 ? pixelsPerRadian / MathF.Max(bc.Length(), 1e-30f) : 0;
             _rampCA = (t.OutlineSides & 4) != 0 ? pixelsPerRadian / MathF.Max(ca.Length(), 1e-30f) : 0;
             _rampAB = (t.OutlineSides & 1) != 0 ? pixelsPerRadian / MathF.Max(ab.Length(), 1e-30f) : 0;
             _depthA = t.DepthA; _depthB = t.DepthB; _depthC = t.DepthC;
-            _colourA = t.ColourA; _colourB = t.ColourB; _colourC = t.ColourC;
+            _colourA = new FloatTriple(t.ColourA); _colourB = new FloatTriple(t.ColourB); _colourC = new FloatTriple(t.ColourC);
         }
 
         public int BoxCount { get; private set; }
@@ -674,7 +676,7 @@ public sealed class SkyRasterizer
         }
 
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        private static Vector256<float> Dot(Vector3 side, Vector256<float> px, Vector256<float> py, Vector256<float> pz) =>
+        private static Vector256<float> Dot(in FloatTriple side, Vector256<float> px, Vector256<float> py, Vector256<float> pz) =>
             Vector256.Create(side.X) * px + Vector256.Create(side.Y) * py + Vector256.Create(side.Z) * pz;
 
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
