@@ -6,7 +6,7 @@ namespace Lightward.Rendering;
 
 /// <summary>
 /// Renders one frame, CPU only: observer → optics → projection → background → layers rasterised → exposure → stars →
-/// layers composited → tone map → overlays (see <see cref="Render(Scene, Observer, Camera, RgbaImage)"/>); a frame of
+/// layers composited (light into HDR, guides into a display overlay) → tone map, overlay laid over → overlays (see <see cref="Render(Scene, Observer, Camera, RgbaImage)"/>); a frame of
 /// stars alone is splatted and tone-mapped in one pass, and a frame with layers is splatted, composited and
 /// tone-mapped band by band in one. Keeps its buffers between frames, so a steady stream of same-sized frames does
 /// not allocate; not safe to call from two threads at once (use one renderer per thread).
@@ -20,9 +20,9 @@ public sealed class FrameRenderer
     private readonly CosmicBackgroundPainter _background = new();
     private readonly ExposureMeter _meter = new();
     private readonly ParallelOptions _parallel;
-    private readonly Func<int, HdrFrame, HdrFrame> _compositeAndToneMapBand;
-    /// <summary>Band-sized HDR buffers of the frame's width, one per thread of the composite-and-tone-map pass: all zero and unmarked between bands.</summary>
-    private readonly ScratchPool<HdrFrame> _bandBuffers;
+    private readonly Func<int, BandBuffers, BandBuffers> _compositeAndToneMapBand;
+    /// <summary>Band-sized buffers of the frame's width, one pair per thread of the composite-and-tone-map pass: all zero and unmarked between bands.</summary>
+    private readonly ScratchPool<BandBuffers> _bandBuffers;
     private FrameContext? _frame;
     private Camera? _projectionCamera;
     private Projection? _projection;
@@ -37,7 +37,7 @@ public sealed class FrameRenderer
     public FrameRenderer(int maxThreads = -1)
     {
         _parallel = new ParallelOptions { MaxDegreeOfParallelism = maxThreads };
-        _bandBuffers = new ScratchPool<HdrFrame>(() => new HdrFrame(_frame!.Hdr.Width, StarSplatter.BandHeight), buffer => buffer.Width == _frame!.Hdr.Width);
+        _bandBuffers = new ScratchPool<BandBuffers>(() => new BandBuffers(_frame!.Hdr.Width), buffers => buffers.Hdr.Width == _frame!.Hdr.Width);
         _compositeAndToneMapBand = CompositeAndToneMapBand;
     }
 
@@ -168,9 +168,10 @@ public sealed class FrameRenderer
     /// <summary>
     /// Layers, second pass, then tone map, one row band at a time so that the band stays in cache between them: the
     /// band's stars are splatted into a band-sized buffer, the layers are laid over them in order, each marking the
-    /// pixels it changes so the tone map need not read the rest, and the tone map turns HDR → tone curve → sRGB bytes,
-    /// written straight into the output image. A frame the background lit everywhere is streamed through in place
-    /// instead. Leaves the HDR frame and the band buffers zeroed for the next frame.
+    /// pixels it changes so the tone map need not read the rest, and drawing guides into a band-sized display overlay;
+    /// the tone map turns HDR → tone curve → sRGB bytes, lays the overlay over them, and writes them straight into the
+    /// output image. A frame the background lit everywhere is streamed through in place instead. Leaves the HDR frame
+    /// and the band buffers zeroed for the next frame.
     /// </summary>
     private void CompositeLayersAndToneMap(FrameContext frame)
     {
@@ -194,20 +195,27 @@ public sealed class FrameRenderer
         frame.Image.LitGroupsKnown = markedOnly;
     }
 
-    private unsafe HdrFrame CompositeAndToneMapBand(int band, HdrFrame buffer)
+    private unsafe BandBuffers CompositeAndToneMapBand(int band, BandBuffers buffers)
     {
         FrameContext frame = _frame!;
         HdrFrame hdr = frame.Hdr;
         int firstRow = band * StarSplatter.BandHeight, endRow = Math.Min(hdr.Height, firstRow + StarSplatter.BandHeight);
         bool inPlace = hdr.WhollyTouched;
-        HdrBand rows = inPlace ? new HdrBand(hdr, 0, firstRow, endRow) : new HdrBand(buffer, firstRow, firstRow, endRow);
-        if (!inPlace) _splatter.SplatBand(buffer, band);
+        HdrBand rows = new(inPlace ? hdr : buffers.Hdr, inPlace ? 0 : firstRow, firstRow, endRow, buffers.Overlay, firstRow);
+        if (!inPlace) _splatter.SplatBand(buffers.Hdr, band);
         foreach (IFrameLayer layer in Layers) layer.Composite(frame, rows);
         RgbaImage image = frame.Image;
         fixed (byte* pixels = image.RendererPixels)
         fixed (ushort* lit = image.LitGroups)
             ToneMapper.MapAndClearRows(rows.Buffer, frame.ExposureScale, (uint*)pixels + (long)rows.Origin * hdr.Width, lit + rows.Origin * image.LitEntriesPerRow,
-                _litKnown, firstRow - rows.Origin, endRow - rows.Origin);
-        return buffer;
+                _litKnown, firstRow - rows.Origin, endRow - rows.Origin, buffers.Overlay, 0);
+        return buffers;
+    }
+
+    /// <summary>One thread's buffers for a band: its HDR rows and the guides drawn over them.</summary>
+    private sealed class BandBuffers(int width)
+    {
+        public readonly HdrFrame Hdr = new(width, StarSplatter.BandHeight);
+        public readonly DisplayOverlay Overlay = new(width, StarSplatter.BandHeight);
     }
 }

@@ -42,7 +42,8 @@ public sealed class FrameContext
 /// brightness of its surfaces to <see cref="FrameContext.SurfaceLevels"/>, so that what it shows is exposed for.
 /// <see cref="Composite"/> runs after the stars are splatted, with the exposure known, once per row band: the layer
 /// lays its buffers over the band's rows, which hold the frame's light so far, and marks every pixel group it
-/// changes (<see cref="HdrBand.MarkTouched"/>); the band is tone-mapped while it is still in cache.
+/// changes (<see cref="HdrBand.MarkTouched"/>), and may draw guides into the band's display overlay; the band is
+/// tone-mapped, with the overlay laid over it, while it is still in cache.
 /// </summary>
 public interface IFrameLayer
 {
@@ -58,9 +59,10 @@ public interface IFrameLayer
 
 /// <summary>
 /// Rows [<see cref="FirstRow"/>, <see cref="EndRow"/>) of the HDR frame, held in <see cref="Buffer"/> (the whole
-/// frame, or a band-sized buffer that stays in cache) whose row 0 is frame row <see cref="Origin"/>.
+/// frame, or a band-sized buffer that stays in cache) whose row 0 is frame row <see cref="Origin"/>, and the same rows
+/// of the guides drawn over the picture, held in <see cref="Overlay"/> whose row 0 is frame row <see cref="OverlayOrigin"/>.
 /// </summary>
-public readonly record struct HdrBand(HdrFrame Buffer, int Origin, int FirstRow, int EndRow)
+public readonly record struct HdrBand(HdrFrame Buffer, int Origin, int FirstRow, int EndRow, DisplayOverlay Overlay, int OverlayOrigin)
 {
     /// <summary>Index in <see cref="Buffer"/>'s planes of the first pixel of frame row <paramref name="row"/>.</summary>
     public int RowStart(int row) => (row - Origin) * Buffer.Width;

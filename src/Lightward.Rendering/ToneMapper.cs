@@ -53,17 +53,31 @@ public static class ToneMapper
     /// Unless the frame is <see cref="HdrFrame.WhollyTouched"/>, only the touched pixel groups are read (the rest are
     /// zero, so they map to black and are written as black) and their marks are cleared; <paramref name="lit"/> (laid
     /// out like the image's note of lit groups, row for row with <paramref name="rgba"/>; null for none) is used and
-    /// updated as in <see cref="MapMarkedRows"/>.
+    /// updated as in <see cref="MapMarkedRows"/>. The marked groups of <paramref name="overlay"/> (unless null; of the
+    /// frame's width, its row <paramref name="overlayFirstRow"/> holding HDR row <paramref name="firstRow"/>) are laid
+    /// over the mapped pixels and emptied.
     /// </summary>
-    public static unsafe void MapAndClearRows(HdrFrame hdr, float exposureScale, uint* rgba, ushort* lit, bool litKnown, int firstRow, int endRow)
+    public static unsafe void MapAndClearRows(HdrFrame hdr, float exposureScale, uint* rgba, ushort* lit, bool litKnown, int firstRow, int endRow,
+        DisplayOverlay? overlay = null, int overlayFirstRow = 0)
     {
+        if (overlay is not null && (overlay.Width != hdr.Width || overlayFirstRow + endRow - firstRow > overlay.Height))
+            throw new ArgumentException("overlay and HDR rows differ in size", nameof(overlay));
         fixed (float* red = hdr.Red, green = hdr.Green, blue = hdr.Blue)
         fixed (byte* touched = hdr.Touched)
+        fixed (uint* overlayPixels = overlay?.Pixels)
+        fixed (byte* overlayMarks = overlay?.Marks)
         {
+            // The overlay's pointers shifted so that HDR row r's pixels and marks sit where the HDR planes have them.
+            uint* laidPixels = overlay is null ? null : overlayPixels + (long)(overlayFirstRow - firstRow) * hdr.Width;
+            byte* laidMarks = overlay is null ? null : overlayMarks + (long)(overlayFirstRow - firstRow) * hdr.GroupsPerRow;
             if (hdr.WhollyTouched)
             {
-                int start = firstRow * hdr.Width;
-                MapAndClear(red + start, green + start, blue + start, rgba + start, (endRow - firstRow) * hdr.Width, exposureScale);
+                for (int row = firstRow; row < endRow; row++)
+                {
+                    int start = row * hdr.Width;
+                    MapAndClear(red + start, green + start, blue + start, rgba + start, hdr.Width, exposureScale,
+                        overlay is null ? null : laidPixels + start, overlay is null ? null : laidMarks + row * hdr.GroupsPerRow);
+                }
                 new Span<byte>(touched + firstRow * hdr.GroupsPerRow, (endRow - firstRow) * hdr.GroupsPerRow).Clear();
                 return;
             }
@@ -72,10 +86,41 @@ public static class ToneMapper
             for (int row = firstRow; row < endRow; row += RowsAtOnce)
             {
                 int start = row * hdr.Width;
-                MapMarkedRows(new MarkedPlanes(red + start, green + start, blue + start, hdr.Width, touched + row * hdr.GroupsPerRow, hdr.GroupsPerRow),
-                    rgba + start, hdr.Width, hdr.Width, Math.Min(RowsAtOnce, endRow - row), exposureScale, lit == null ? null : lit + row * litPerRow, litPerRow, litKnown);
+                var planes = new MarkedPlanes(red + start, green + start, blue + start, hdr.Width, touched + row * hdr.GroupsPerRow, hdr.GroupsPerRow,
+                    overlay is null ? null : laidPixels + start, overlay is null ? null : laidMarks + row * hdr.GroupsPerRow);
+                MapMarkedRows(planes, rgba + start, hdr.Width, hdr.Width, Math.Min(RowsAtOnce, endRow - row), exposureScale, lit == null ? null : lit + row * litPerRow, litPerRow, litKnown);
             }
         }
+    }
+
+    /// <summary>Premultiplied <paramref name="over"/> laid over the opaque pixel <paramref name="under"/>: per channel over + (1 − coverage) × under, rounded.</summary>
+    private static uint LayOver(uint over, uint under)
+    {
+        // The same float steps as LayOverGroup, so that a pixel comes out alike on either path.
+        float keep = (255 - (float)(over >> 24)) * (1f / 255);
+        uint result = OpaqueBlack;
+        for (int shift = 0; shift < 24; shift += 8)
+            result |= ((over >> shift & 0xFF) + (uint)MathF.Round((under >> shift & 0xFF) * keep)) << shift;
+        return result;
+    }
+
+    /// <summary>
+    /// <see cref="LayOver"/> for a group of eight pixels at <paramref name="overlay"/>, which it empties; when
+    /// <paramref name="underIsBlack"/> the overlay's codes are the result as they are. Premultiplied codes never
+    /// exceed their coverage, so no channel's sum passes 255.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe Vector256<int> LayOverGroup(Vector256<int> under, uint* overlay, bool underIsBlack)
+    {
+        Vector256<int> over = Vector256.Load((int*)overlay), black = Vector256.Create(unchecked((int)OpaqueBlack));
+        Vector256<int>.Zero.Store((int*)overlay);
+        if (underIsBlack) return over | black;
+        Vector256<int> channel = Vector256.Create(0xFF);
+        Vector256<float> keep = (Vector256.Create(255f) - Vector256.ConvertToSingle(Vector256.ShiftRightLogical(over, 24))) * Vector256.Create(1f / 255);
+        Vector256<int> red = VectorRounding.Round(Vector256.ConvertToSingle(under & channel) * keep);
+        Vector256<int> green = VectorRounding.Round(Vector256.ConvertToSingle(Vector256.ShiftRightLogical(under, 8) & channel) * keep);
+        Vector256<int> blue = VectorRounding.Round(Vector256.ConvertToSingle(Vector256.ShiftRightLogical(under, 16) & channel) * keep);
+        return (over + (red | Vector256.ShiftLeft(green, 8) | Vector256.ShiftLeft(blue, 16))) | black;
     }
 
     private const uint OpaqueBlack = 0xFF000000u;
@@ -85,13 +130,16 @@ public static class ToneMapper
 
     /// <summary>
     /// Rows of HDR planes (<see cref="Stride"/> floats apart) with a mark per <see cref="HdrFrame.GroupWidth"/>-pixel
-    /// group (<see cref="MarkStride"/> bytes apart).
+    /// group (<see cref="MarkStride"/> bytes apart), and the same rows of a display overlay laid out alike (null for none).
     /// </summary>
-    internal readonly unsafe struct MarkedPlanes(float* red, float* green, float* blue, int stride, byte* marks, int markStride)
+    internal readonly unsafe struct MarkedPlanes(float* red, float* green, float* blue, int stride, byte* marks, int markStride,
+        uint* overlay = null, byte* overlayMarks = null)
     {
         public readonly float* Red = red, Green = green, Blue = blue;
         public readonly int Stride = stride, MarkStride = markStride;
         public readonly byte* Marks = marks;
+        public readonly uint* Overlay = overlay;
+        public readonly byte* OverlayMarks = overlayMarks;
     }
 
     /// <summary>
@@ -101,7 +149,8 @@ public static class ToneMapper
     /// <paramref name="litKnown"/>, the groups not noted in <paramref name="lit"/> (per row, one entry per
     /// <see cref="RgbaImage.GroupsPerLitEntry"/> groups; rows <paramref name="litStride"/> entries apart) are black
     /// already and only the noted ones are written black; otherwise every group is written. Either way
-    /// <paramref name="lit"/> (unless null) is left noting the marked groups.
+    /// <paramref name="lit"/> (unless null) is left noting the groups written other than black. Each marked group of
+    /// the planes' overlay is laid over its group (mapped, or black) and emptied.
     /// <para>
     /// Marks are scattered (a star touches a few groups), so they are first read into bit masks, 16 groups to a mask,
     /// and the groups to write are then visited four masks at a time: a loop exit the processor cannot predict per 64
@@ -123,22 +172,26 @@ public static class ToneMapper
         // Otherwise a tile's few dozen output lines are asked for ahead of their writes; a whole band's (about a thousand
         // under the grid of space) would queue behind one another, and asking for them made the near-field frame 7 % slower.
         bool prefetch = !wholeLines && litKnown && blocksPerRow == 1;
-        ushort* marked = stackalloc ushort[paddedBlocks], dark = stackalloc ushort[paddedBlocks];
+        ushort* marked = stackalloc ushort[paddedBlocks], dark = stackalloc ushort[paddedBlocks], laid = stackalloc ushort[paddedBlocks];
         new Span<ushort>(marked, paddedBlocks).Clear();
         new Span<ushort>(dark, paddedBlocks).Clear();
+        new Span<ushort>(laid, paddedBlocks).Clear();
         for (int row = 0; row < rows; row++)
         {
             uint* rowPixels = rgba + (long)row * rgbaStride;
             byte* rowMarks = planes.Marks + row * planes.MarkStride;
+            byte* rowOverlayMarks = planes.OverlayMarks + row * planes.MarkStride;
             ushort* rowLit = lit + row * litStride;
             for (int block = 0, at = row * maskRowStride; block < blocksPerRow; block++, at++)
             {
                 int count = Math.Min(MarkBlock, groups - block * MarkBlock);
                 ushort mask = TakeMarks(rowMarks + block * MarkBlock, count);
+                ushort overlaid = planes.OverlayMarks == null ? (ushort)0 : TakeMarks(rowOverlayMarks + block * MarkBlock, count);
                 marked[at] = mask;
-                dark[at] = (ushort)((litKnown ? rowLit[block] : (1u << count) - 1) & ~mask);
-                if (prefetch) PrefetchGroups(rowPixels + block * MarkBlock * HdrFrame.GroupWidth, (uint)(mask | dark[at]));
-                if (lit != null) rowLit[block] = mask;
+                laid[at] = overlaid;
+                dark[at] = (ushort)((litKnown ? rowLit[block] : (1u << count) - 1) & ~(mask | overlaid));
+                if (prefetch) PrefetchGroups(rowPixels + block * MarkBlock * HdrFrame.GroupWidth, (uint)(mask | overlaid | dark[at]));
+                if (lit != null) rowLit[block] = (ushort)(mask | overlaid);
             }
         }
         var scale = Vector256.Create(exposureScale);
@@ -146,7 +199,7 @@ public static class ToneMapper
         {
             if (wholeLines)
             {
-                MapWholeLines(planes, rgba, rgbaStride, marked, dark, paddedBlocks, maskRowStride, scale, table);
+                MapWholeLines(planes, rgba, rgbaStride, marked, dark, laid, paddedBlocks, maskRowStride, scale, table);
                 return;
             }
             int wholeGroups = width / HdrFrame.GroupWidth;
@@ -159,13 +212,24 @@ public static class ToneMapper
                     (int row, int group) = Locate(wordRow, wordBlock, BitOperations.TrailingZeroCount(bits), maskRowStride);
                     WriteBlack(rgba + (long)row * rgbaStride, group * HdrFrame.GroupWidth, width);
                 }
-                for (ulong bits = *(ulong*)(marked + word); bits != 0; bits &= bits - 1)
+                ulong mappedBits = *(ulong*)(marked + word), laidBits = *(ulong*)(laid + word);
+                for (ulong bits = mappedBits | laidBits; bits != 0; bits &= bits - 1)
                 {
-                    (int row, int group) = Locate(wordRow, wordBlock, BitOperations.TrailingZeroCount(bits), maskRowStride);
+                    int bit = BitOperations.TrailingZeroCount(bits);
+                    (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
                     int first = group * HdrFrame.GroupWidth, pixel = row * planes.Stride + first;
                     uint* output = rgba + (long)row * rgbaStride + first;
-                    if (vectorized && group < wholeGroups) MapVector(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, output, scale, table);
-                    else MapAndClear(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, output, Math.Min(HdrFrame.GroupWidth, width - first), exposureScale);
+                    bool mapped = (mappedBits >> bit & 1) != 0, overlaid = (laidBits >> bit & 1) != 0;
+                    // An overlay group on an unmarked one is laid over black: its HDR pixels are zero, which map to black.
+                    if (vectorized && group < wholeGroups)
+                    {
+                        Vector256<int> pixels = mapped ? MapGroup(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, scale, table) : Vector256.Create(unchecked((int)OpaqueBlack));
+                        Avx.Store((int*)output, overlaid ? LayOverGroup(pixels, planes.Overlay + pixel, underIsBlack: !mapped) : pixels);
+                        continue;
+                    }
+                    byte laidMark = overlaid ? (byte)1 : (byte)0;
+                    MapAndClear(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, output, Math.Min(HdrFrame.GroupWidth, width - first), exposureScale,
+                        overlaid ? planes.Overlay + pixel : null, overlaid ? &laidMark : null);
                 }
             }
         }
@@ -181,15 +245,14 @@ public static class ToneMapper
     /// lines a frame writes were last written a frame ago and are far from the core by now (on a 2-core AMD EPYC this
     /// took 3–4 % off the 1080p star frame at rest and 7–10 % off a turning one). Needs rows that start on lines.
     /// </summary>
-    private static unsafe void MapWholeLines(in MarkedPlanes planes, uint* rgba, int rgbaStride, ushort* marked, ushort* dark, int paddedBlocks,
+    private static unsafe void MapWholeLines(in MarkedPlanes planes, uint* rgba, int rgbaStride, ushort* marked, ushort* dark, ushort* laid, int paddedBlocks,
         int maskRowStride, Vector256<float> scale, byte* table)
     {
         const ulong FirstOfEachPair = 0x5555_5555_5555_5555;
-        var black = Vector256.Create(unchecked((int)OpaqueBlack));
         for (int word = 0; word < paddedBlocks; word += 4)
         {
             (int wordRow, int wordBlock) = Math.DivRem(word, maskRowStride);
-            ulong mapped = *(ulong*)(marked + word), written = mapped | *(ulong*)(dark + word);
+            ulong mapped = *(ulong*)(marked + word), overlaid = *(ulong*)(laid + word), written = mapped | overlaid | *(ulong*)(dark + word);
             // Bit 2k stands for the line of groups 2k and 2k + 1; a block holds 16 groups, so no line spans two blocks.
             for (ulong lines = (written | written >> 1) & FirstOfEachPair; lines != 0; lines &= lines - 1)
             {
@@ -197,14 +260,24 @@ public static class ToneMapper
                 (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
                 int first = group * HdrFrame.GroupWidth, pixel = row * planes.Stride + first;
                 int* line = (int*)(rgba + (long)row * rgbaStride + first);
-                Avx.StoreAlignedNonTemporal(line, (mapped >> bit & 1) != 0 ? MapGroup(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, scale, table) : black);
-                pixel += HdrFrame.GroupWidth;
-                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth,
-                    (mapped >> bit & 2) != 0 ? MapGroup(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, scale, table) : black);
+                Avx.StoreAlignedNonTemporal(line, GroupToWrite(planes, pixel, mapped >> bit, overlaid >> bit, scale, table));
+                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, GroupToWrite(planes, pixel + HdrFrame.GroupWidth, mapped >> bit >> 1, overlaid >> bit >> 1, scale, table));
             }
         }
         // Non-temporal stores are weakly ordered: they must reach memory before another thread reads the image.
         Sse.StoreFence();
+    }
+
+    /// <summary>
+    /// The group at <paramref name="pixel"/> as written: mapped when bit 0 of <paramref name="mapped"/> is set, else
+    /// black (what an unmarked group holds), with its overlay laid over it when bit 0 of <paramref name="overlaid"/> is.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe Vector256<int> GroupToWrite(in MarkedPlanes planes, int pixel, ulong mapped, ulong overlaid, Vector256<float> scale, byte* table)
+    {
+        bool isMapped = (mapped & 1) != 0;
+        Vector256<int> pixels = isMapped ? MapGroup(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, scale, table) : Vector256.Create(unchecked((int)OpaqueBlack));
+        return (overlaid & 1) != 0 ? LayOverGroup(pixels, planes.Overlay + pixel, underIsBlack: !isMapped) : pixels;
     }
 
     /// <summary>
@@ -300,13 +373,12 @@ public static class ToneMapper
             | table[Avx2.PermuteVar8x32(blue, pick).ToScalar()] << 16 | unchecked((int)OpaqueBlack);
     }
 
-    /// <summary><see cref="MapGroup"/> stored to <paramref name="rgba"/>.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static unsafe void MapVector(float* red, float* green, float* blue, uint* rgba, Vector256<float> scale, byte* table) =>
-        Avx.Store((int*)rgba, MapGroup(red, green, blue, scale, table));
-
-    /// <summary>Tone maps <paramref name="count"/> pixels of three HDR planes into RGBA8 and zeroes the HDR values read.</summary>
-    internal static unsafe void MapAndClear(float* red, float* green, float* blue, uint* rgba, int count, float exposureScale)
+    /// <summary>
+    /// Tone maps <paramref name="count"/> pixels of three HDR planes, from the start of a group, into RGBA8 and zeroes
+    /// the HDR values read; where <paramref name="overlayMarks"/> (one per group; null for none) marks a group, the
+    /// overlay at <paramref name="overlay"/> is laid over it and both are emptied.
+    /// </summary>
+    internal static unsafe void MapAndClear(float* red, float* green, float* blue, uint* rgba, int count, float exposureScale, uint* overlay = null, byte* overlayMarks = null)
     {
         int pixel = 0;
         fixed (byte* table = EncodedTable)
@@ -318,13 +390,15 @@ public static class ToneMapper
                 if (((nint)rgba & (RgbaImage.LineBytes - 1)) == 0 && count % PixelsPerLine == 0 && HdrFrame.GroupWidth == Vector256<float>.Count)
                 {
                     for (; pixel < count; pixel += Vector256<float>.Count)
-                        Avx.StoreAlignedNonTemporal((int*)(rgba + pixel), MapGroup(red + pixel, green + pixel, blue + pixel, scale, table));
+                        Avx.StoreAlignedNonTemporal((int*)(rgba + pixel), WithOverlay(MapGroup(red + pixel, green + pixel, blue + pixel, scale, table), overlay, overlayMarks, pixel));
                     Sse.StoreFence();
                     return;
                 }
                 for (; pixel + Vector256<float>.Count <= count; pixel += Vector256<float>.Count)
-                    MapVector(red + pixel, green + pixel, blue + pixel, rgba + pixel, scale, table);
+                    Avx.Store((int*)(rgba + pixel), WithOverlay(MapGroup(red + pixel, green + pixel, blue + pixel, scale, table), overlay, overlayMarks, pixel));
             }
+            bool tailOverlaid = overlayMarks != null && pixel < count && overlayMarks[pixel / HdrFrame.GroupWidth] != 0;
+            if (tailOverlaid) overlayMarks[pixel / HdrFrame.GroupWidth] = 0;
             for (; pixel < count; pixel++)
             {
                 uint r = (uint)table[TableIndex(red[pixel] * exposureScale)];
@@ -332,8 +406,20 @@ public static class ToneMapper
                 uint b = (uint)table[TableIndex(blue[pixel] * exposureScale)];
                 rgba[pixel] = r | g << 8 | b << 16 | OpaqueBlack;
                 red[pixel] = green[pixel] = blue[pixel] = 0;
+                if (!tailOverlaid) continue;
+                rgba[pixel] = LayOver(overlay[pixel], rgba[pixel]);
+                overlay[pixel] = 0;
             }
         }
+    }
+
+    /// <summary>The mapped group from <paramref name="pixel"/> with its overlay laid over it (and emptied, mark and all) if it has one.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe Vector256<int> WithOverlay(Vector256<int> mapped, uint* overlay, byte* overlayMarks, int pixel)
+    {
+        if (overlayMarks == null || overlayMarks[pixel / HdrFrame.GroupWidth] == 0) return mapped;
+        overlayMarks[pixel / HdrFrame.GroupWidth] = 0;
+        return LayOverGroup(mapped, overlay + pixel, underIsBlack: false);
     }
 
     /// <summary>The table entry for eight exposed values: NaN and negatives go to 0 (black), anything past white to the last.</summary>

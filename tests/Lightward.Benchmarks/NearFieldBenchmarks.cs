@@ -24,6 +24,7 @@ public class NearFieldBenchmarks
     private FrameRenderer _withEmptyLayer = null!;
     private NearFieldLayer _bodiesOnly = null!, _gridOnly = null!;
     private HdrFrame _hdr = null!;
+    private DisplayOverlay _guides = null!;
     private Rendering.Projections.Projection _projection = null!;
 
     [Params(24, 48, 96)]
@@ -49,6 +50,7 @@ public class NearFieldBenchmarks
         _gridOnly = new NearFieldLayer([], grid);
         _projection = camera.CreateProjection();
         _hdr = new HdrFrame(1920, 1080);
+        _guides = new DisplayOverlay(1920, 1080);
         _plain.Render(_scene, _observer, camera, _image);
         _withNearField.Render(_scene, _observer, camera, _image);
         _withEmptyLayer.Render(_scene, _observer, camera, _image);
@@ -64,8 +66,8 @@ public class NearFieldBenchmarks
     public void FrameWithEmptyNearField() => _withEmptyLayer.Render(_scene, _observer, RenderBenchmarkScenes.Perspective1080, _image);
 
     [Benchmark]
-    public void BodiesAlone() => _bodiesOnly.Draw(_hdr, _projection, _observer.Ship, Rotation.Identity, new ParallelOptions());
+    public void BodiesAlone() => _bodiesOnly.Draw(_hdr, _guides, _projection, _observer.Ship, Rotation.Identity, new ParallelOptions());
 
     [Benchmark]
-    public void GridAlone() => _gridOnly.Draw(_hdr, _projection, _observer.Ship, Rotation.Identity, new ParallelOptions());
+    public void GridAlone() => _gridOnly.Draw(_hdr, _guides, _projection, _observer.Ship, Rotation.Identity, new ParallelOptions());
 }

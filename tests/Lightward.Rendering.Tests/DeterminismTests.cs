@@ -125,6 +125,24 @@ public class DeterminismTests
         }
     }
 
+    /// <summary>The same random guides (premultiplied display codes and coverage) in every third group of each of <paramref name="overlays"/>.</summary>
+    private static void DrawRandomGuides(params DisplayOverlay[] overlays)
+    {
+        var random = new Random(4);
+        DisplayOverlay first = overlays[0];
+        for (int row = 0; row < first.Height; row++)
+            for (int group = row % 3; group < first.GroupsPerRow; group += 3)
+                for (int x = group * HdrFrame.GroupWidth; x < Math.Min(first.Width, (group + 1) * HdrFrame.GroupWidth); x++)
+                {
+                    uint coverage = (uint)random.Next(256), code = (uint)random.Next((int)coverage + 1);
+                    foreach (DisplayOverlay overlay in overlays)
+                    {
+                        overlay.Pixels[row * first.Width + x] = code | code / 2 << 8 | code / 3 << 16 | coverage << 24;
+                        overlay.Marks[row * first.GroupsPerRow + group] = 1;
+                    }
+                }
+    }
+
     [Fact]
     public unsafe void The_sparse_tone_map_gives_the_same_bytes_as_reading_every_pixel()
     {
@@ -132,12 +150,15 @@ public class DeterminismTests
         var whole = new HdrFrame(203, 70);
         SplatRandomStars(marked, whole);
         whole.WhollyTouched = true;
+        var markedGuides = new DisplayOverlay(203, 70);
+        var wholeGuides = new DisplayOverlay(203, 70);
+        DrawRandomGuides(markedGuides, wholeGuides);
         var sparseImage = new RgbaImage(203, 70);
         var fullImage = new RgbaImage(203, 70);
         fixed (byte* sparse = sparseImage.Pixels, full = fullImage.Pixels)
         {
-            ToneMapper.MapAndClearRows(marked, 0.5f, (uint*)sparse, null, false, 0, 70);
-            ToneMapper.MapAndClearRows(whole, 0.5f, (uint*)full, null, false, 0, 70);
+            ToneMapper.MapAndClearRows(marked, 0.5f, (uint*)sparse, null, false, 0, 70, markedGuides);
+            ToneMapper.MapAndClearRows(whole, 0.5f, (uint*)full, null, false, 0, 70, wholeGuides);
         }
         Assert.Equal(fullImage.ReadOnlyPixels.ToArray(), sparseImage.ReadOnlyPixels.ToArray());
         Assert.Contains(sparseImage.ReadOnlyPixels.ToArray(), b => b is > 0 and < 255);
@@ -158,14 +179,17 @@ public class DeterminismTests
         var groupByGroup = new HdrFrame(Width, Height);
         SplatRandomStars(lineByLine, groupByGroup);
         lineByLine.WhollyTouched = groupByGroup.WhollyTouched = everyPixelRead;
+        var lineGuides = new DisplayOverlay(Width, Height);
+        var groupGuides = new DisplayOverlay(Width, Height);
+        DrawRandomGuides(lineGuides, groupGuides);
         var image = new RgbaImage(Width, Height);
         var offLine = new uint[Width * Height + 32];
         fixed (byte* lines = image.Pixels)
         fixed (uint* memory = offLine)
         {
             uint* groups = (uint*)(((nint)memory + 63) & ~(nint)63) + 1;
-            ToneMapper.MapAndClearRows(lineByLine, 0.5f, (uint*)lines, null, false, 0, Height);
-            ToneMapper.MapAndClearRows(groupByGroup, 0.5f, groups, null, false, 0, Height);
+            ToneMapper.MapAndClearRows(lineByLine, 0.5f, (uint*)lines, null, false, 0, Height, lineGuides);
+            ToneMapper.MapAndClearRows(groupByGroup, 0.5f, groups, null, false, 0, Height, groupGuides);
             Assert.True(new ReadOnlySpan<uint>(lines, Width * Height).SequenceEqual(new ReadOnlySpan<uint>(groups, Width * Height)));
         }
         Assert.Contains(image.ReadOnlyPixels.ToArray(), b => b is > 0 and < 255);

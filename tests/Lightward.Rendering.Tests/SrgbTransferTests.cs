@@ -61,7 +61,10 @@ public class SrgbTransferTests
         // Groups of eight pixels with 0, 1, 2, 3 or 8 lit pixels (looked up one by one or gathered), odd values (NaN,
         // negative, past white), a partial group at the right edge of 203 px, whole cache lines at 208 px: each
         // written pixel must be the scalar table's code for its channels (the table is checked against the published
-        // curve and encoding above), alpha 255.
+        // curve and encoding above), alpha 255. Every third group also carries a display overlay (premultiplied codes
+        // and coverage), lit or not under it: there the pixel must be the overlay laid over that code by Porter &
+        // Duff's "over" (Compositing Digital Images, SIGGRAPH 1984: C = C_over + (1 − α_over) C_under), to within the
+        // rounding of one code.
         const int Height = 12;
         const float Scale = 0.75f;
         var hdr = new HdrFrame(width, Height);
@@ -81,16 +84,41 @@ public class SrgbTransferTests
                 hdr.MarkTouched(row, group * HdrFrame.GroupWidth, Math.Min(width, (group + 1) * HdrFrame.GroupWidth));
             }
         hdr.WhollyTouched = everyPixelRead;
+        var overlay = new DisplayOverlay(width, Height);
+        for (int row = 0; row < Height; row++)
+            for (int group = row % 3; group * HdrFrame.GroupWidth < width; group += 3)
+            {
+                for (int x = group * HdrFrame.GroupWidth; x < Math.Min(width, (group + 1) * HdrFrame.GroupWidth); x++)
+                {
+                    uint coverage = (uint)random.Next(256);
+                    uint Code() => (uint)random.Next((int)coverage + 1);
+                    overlay.Pixels[row * width + x] = Code() | Code() << 8 | Code() << 16 | coverage << 24;
+                }
+                overlay.Marks[row * overlay.GroupsPerRow + group] = 1;
+            }
         float[] red = [.. hdr.Red], green = [.. hdr.Green], blue = [.. hdr.Blue];
+        uint[] laid = [.. overlay.Pixels];
         var image = new RgbaImage(width, Height);
         fixed (byte* pixels = image.Pixels)
-            ToneMapper.MapAndClearRows(hdr, Scale, (uint*)pixels, null, false, 0, Height);
+            ToneMapper.MapAndClearRows(hdr, Scale, (uint*)pixels, null, false, 0, Height, overlay);
         for (int i = 0; i < width * Height; i++)
         {
             (byte r, byte g, byte b) = image[i % width, i / width];
-            Assert.Equal((ToneMapper.Code(red[i] * Scale), ToneMapper.Code(green[i] * Scale), ToneMapper.Code(blue[i] * Scale)), (r, g, b));
+            byte[] under = [ToneMapper.Code(red[i] * Scale), ToneMapper.Code(green[i] * Scale), ToneMapper.Code(blue[i] * Scale)];
+            bool overlaid = (i / width) % 3 == (i % width / HdrFrame.GroupWidth) % 3;
+            if (!overlaid) Assert.Equal((under[0], under[1], under[2]), (r, g, b));
+            else
+            {
+                double keep = (255 - (laid[i] >> 24)) / 255.0;
+                byte[] written = [r, g, b];
+                for (int channel = 0; channel < 3; channel++)
+                    Assert.InRange(written[channel], (laid[i] >> (8 * channel) & 0xFF) + keep * under[channel] - 1, (laid[i] >> (8 * channel) & 0xFF) + keep * under[channel] + 1);
+            }
             Assert.Equal(255, image.ReadOnlyPixels[4 * i + 3]);
         }
+        // The overlay is left empty and unmarked for the next band.
+        Assert.All(overlay.Pixels, pixel => Assert.Equal(0u, pixel));
+        Assert.All(overlay.Marks, mark => Assert.Equal(0, mark));
     }
 
     [Fact]

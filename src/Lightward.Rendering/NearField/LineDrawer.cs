@@ -6,17 +6,19 @@ using Lightward.Spacetime;
 namespace Lightward.Rendering.NearField;
 
 /// <summary>
-/// Draws anti-aliased lines one pixel wide into rows of the HDR frame: along each segment's major axis, every column (or
-/// row) whose centre falls in the half-open span [start, end) lays the colour over the two or three pixels across,
-/// with a coverage given by a tent of the perpendicular distance (so a line looks the same at any slope and
-/// consecutive segments never paint a joint twice). Lines are laid over what is there rather than added to it, so
-/// where many cross — a lattice crowded ahead of a fast ship — the picture takes the lines' colour instead of
+/// Draws anti-aliased lines one pixel wide into rows of a display overlay, laid over the tone-mapped picture: along
+/// each segment's major axis, every column (or row) whose centre falls in the half-open span [start, end) lays the
+/// colour over the two or three pixels across, with a coverage given by a tent of the perpendicular distance (so a
+/// line looks the same at any slope and consecutive segments never paint a joint twice). The colour is the display
+/// code the tone map gives the segment's exposed colour, interpolated along the segment, so a line shows as bright
+/// whatever lies under it and costs the tone map nothing. Lines are laid over what is there rather than added to it,
+/// so where many cross — a lattice crowded ahead of a fast ship — the picture takes the lines' colour instead of
 /// piling up to white. A line point farther than the surface drawn in a pixel is hidden by it; pixels that show no
 /// sky (outside a dome's disc) stay dark. Segments are first sorted into row bands (in their fixed order); any range
 /// of rows is then drawn band by band, each pixel by the segments of its own band in that order, so the result does
 /// not depend on how the rows are split between threads. Each row is drawn eight neighbouring pixels at a time; a steep
 /// line, four pixels wide in a row, two rows at a time.
-/// Every pixel written is marked touched. Keeps its band lists between frames.
+/// Every group drawn into is marked in the overlay. Keeps its band lists between frames.
 /// </summary>
 public sealed class LineDrawer
 {
@@ -82,15 +84,16 @@ public sealed class LineDrawer
         public readonly BandLists Bands = new();
     }
 
-    /// <summary>Draws the sorted segments into the rows of <paramref name="rows"/>, with their colours multiplied by <paramref name="colourScale"/>.</summary>
-    public unsafe void Draw(HdrBand rows, float colourScale)
+    /// <summary>Draws the sorted segments into the overlay rows of <paramref name="rows"/>.</summary>
+    public unsafe void Draw(HdrBand rows)
     {
         SkyRasterizer surfaces = _surfaces ?? throw new InvalidOperationException("no segments sorted yet");
-        HdrFrame buffer = rows.Buffer;
-        if (buffer.Width != surfaces.Width || rows.EndRow > surfaces.Height || rows.EndRow - rows.Origin > buffer.Height || rows.FirstRow < rows.Origin)
+        DisplayOverlay overlay = rows.Overlay;
+        if (overlay.Width != surfaces.Width || rows.EndRow > surfaces.Height || rows.EndRow - rows.OverlayOrigin > overlay.Height || rows.FirstRow < rows.OverlayOrigin)
             throw new ArgumentException("rows and surface layer differ in size", nameof(rows));
-        fixed (float* red = buffer.Red, green = buffer.Green, blue = buffer.Blue, depth = surfaces.Depths)
-        fixed (byte* touched = buffer.Touched)
+        fixed (uint* codes = overlay.Pixels)
+        fixed (float* depth = surfaces.Depths)
+        fixed (byte* marks = overlay.Marks)
         for (int band = rows.FirstRow / BandRows; band * BandRows < rows.EndRow; band++)
         {
             int top = Math.Max(rows.FirstRow, band * BandRows), bottom = Math.Min(rows.EndRow, (band + 1) * BandRows);
@@ -105,7 +108,7 @@ public sealed class LineDrawer
                     ref readonly Stroke stroke = ref strokes[k];
                     // Most segments pass no surface and cross only pixels that show sky: those skip the per-pixel depth and
                     // sky tests, which keeps a pixel's memory traffic to its three colour planes.
-                    var line = new Line(stroke, colourScale, new Pixels(red, green, blue, touched, depth, surfaces.Sky, rows),
+                    var line = new Line(stroke, new Pixels(codes, marks, depth, surfaces.Sky, overlay, rows.OverlayOrigin),
                         bandMeetsSurface && stroke.MayMeetSurface(surfaces, top, bottom), surfaces.Sky.HasBlankPixels);
                     if (line.TestsPixels) line.Draw<EveryPixelTested>(top, bottom);
                     else line.Draw<NoPixelTested>(top, bottom);
@@ -122,7 +125,7 @@ public sealed class LineDrawer
     /// perpendicular distance.
     /// </summary>
     private readonly record struct Stroke(PixelSegment Segment, bool AlongX, int First, int Last, float Start, float InverseSpan,
-        float MinorStart, float MinorChange, float Perpendicular)
+        float MinorStart, float MinorChange, float Perpendicular, Vector3 Code0, Vector3 Code1)
     {
         public static bool TryPrepare(in PixelSegment s, int width, int height, out Stroke stroke)
         {
@@ -137,9 +140,12 @@ public sealed class LineDrawer
             int first = (int)Math.Max(0, MathF.Ceiling(low - 0.5f)), last = (int)Math.Min(majorLimit - 1, MathF.Ceiling(high - 0.5f) - 1);
             if (first > last) return false;
             stroke = new Stroke(s, alongX, first, last, start, 1 / (end - start), alongX ? s.Y0 : s.X0, alongX ? dy : dx,
-                (alongX ? MathF.Abs(dx) : MathF.Abs(dy)) / length);
+                (alongX ? MathF.Abs(dx) : MathF.Abs(dy)) / length, DisplayCodes(s.Colour0), DisplayCodes(s.Colour1));
             return true;
         }
+
+        /// <summary>The tone map's display codes for an exposed colour, as it would write them.</summary>
+        private static Vector3 DisplayCodes(Vector3 exposed) => new(ToneMapper.Code(exposed.X), ToneMapper.Code(exposed.Y), ToneMapper.Code(exposed.Z));
 
         /// <summary>False when no surface was drawn within reach of the part of the segment that rows [<paramref name="top"/>, <paramref name="bottom"/>) show.</summary>
         public bool MayMeetSurface(SkyRasterizer surfaces, int top, int bottom)
@@ -158,13 +164,14 @@ public sealed class LineDrawer
         }
     }
 
-    /// <summary>The band's pixels as the drawing loops address them: colour planes and marks from the band's first row, surface depths of the whole frame (pinned by the caller), and which pixels show the sky.</summary>
-    private readonly unsafe struct Pixels(float* red, float* green, float* blue, byte* touched, float* depth, ImageSky sky, HdrBand rows)
+    /// <summary>The band's pixels as the drawing loops address them: overlay codes and marks from the overlay's first row (frame row <paramref name="origin"/>), surface depths of the whole frame (pinned by the caller), and which pixels show the sky.</summary>
+    private readonly unsafe struct Pixels(uint* codes, byte* marks, float* depth, ImageSky sky, DisplayOverlay overlay, int origin)
     {
-        public readonly float* Red = red, Green = green, Blue = blue, Depth = depth;
+        public readonly uint* Codes = codes;
+        public readonly float* Depth = depth;
         public readonly ImageSky Sky = sky;
-        public readonly byte* Touched = touched;
-        public readonly int Width = rows.Buffer.Width, GroupsPerRow = rows.Buffer.GroupsPerRow, Origin = rows.Origin;
+        public readonly byte* Marks = marks;
+        public readonly int Width = overlay.Width, GroupsPerRow = overlay.GroupsPerRow, Origin = origin;
     }
 
     /// <summary>Whether a line's pixels are each tested for a surface in front and for showing sky: a type argument, so that the common untested loop carries no trace of the tests.</summary>
@@ -209,14 +216,14 @@ public sealed class LineDrawer
     private readonly record struct RowWindow(float T, float Minor, int From, int To);
 
     /// <summary>One stroke being drawn into one band: pixels are laid a row at a time, eight neighbours (or a steep line's four in each of two rows) at once, with a coverage of 1 − (perpendicular distance) where positive.</summary>
-    private readonly unsafe ref struct Line(in Stroke stroke, float colourScale, Pixels pixels, bool testDepth, bool testSky)
+    private readonly unsafe ref struct Line(in Stroke stroke, Pixels pixels, bool testDepth, bool testSky)
     {
         private readonly bool _alongX = stroke.AlongX;
         private readonly int _first = stroke.First, _last = stroke.Last;
         private readonly float _start = stroke.Start, _inverseSpan = stroke.InverseSpan, _minorStart = stroke.MinorStart, _minorChange = stroke.MinorChange;
         private readonly float _perpendicular = stroke.Perpendicular;
         private readonly float _lowY = MathF.Min(stroke.Segment.Y0, stroke.Segment.Y1), _highY = MathF.Max(stroke.Segment.Y0, stroke.Segment.Y1);
-        private readonly Vector3 _colour0 = colourScale * stroke.Segment.Colour0, _colourChange = colourScale * (stroke.Segment.Colour1 - stroke.Segment.Colour0);
+        private readonly Vector3 _colour0 = stroke.Code0, _colourChange = stroke.Code1 - stroke.Code0;
         private readonly float _depth0 = stroke.Segment.Depth0, _depthChange = stroke.Segment.Depth1 - stroke.Segment.Depth0;
         private readonly int _width = pixels.Width;
 
@@ -331,28 +338,22 @@ public sealed class LineDrawer
             Vector256<float> blue = Vector256.Create(_colour0.Z) + t * Vector256.Create(_colourChange.Z);
             if (TShape.TwoRows)
             {
-                OverTwoRows(pixels.Red, i, nextI, weight, red, covered);
-                OverTwoRows(pixels.Green, i, nextI, weight, green, covered);
-                OverTwoRows(pixels.Blue, i, nextI, weight, blue, covered);
+                uint* upper = pixels.Codes + i, lower = pixels.Codes + nextI;
+                Vector256<int> laid = Over(Vector256.Create(Vector128.Load((int*)upper), Vector128.Load((int*)lower)), weight, red, green, blue, covered);
+                laid.GetLower().Store((int*)upper);
+                laid.GetUpper().Store((int*)lower);
                 Mark(place.Y, place.X, lanes & ((1u << TwoRowLanes) - 1));
                 Mark(place.NextY, place.NextX, lanes >> TwoRowLanes);
                 return;
             }
-            if (place.X + VectorLanes.Count <= _width)
-            {
-                Over(pixels.Red + i, weight, red, covered);
-                Over(pixels.Green + i, weight, green, covered);
-                Over(pixels.Blue + i, weight, blue, covered);
-            }
+            if (place.X + VectorLanes.Count <= _width) Over(Vector256.Load((int*)(pixels.Codes + i)), weight, red, green, blue, covered).Store((int*)(pixels.Codes + i));
             else
                 // The last few pixels of a row: one at a time, so nothing past the row's end is read or written.
                 for (int lane = 0; lane < _width - place.X; lane++)
                 {
                     if ((lanes >> lane & 1) == 0) continue;
-                    float w = weight.GetElement(lane);
-                    pixels.Red[i + lane] += w * (red.GetElement(lane) - pixels.Red[i + lane]);
-                    pixels.Green[i + lane] += w * (green.GetElement(lane) - pixels.Green[i + lane]);
-                    pixels.Blue[i + lane] += w * (blue.GetElement(lane) - pixels.Blue[i + lane]);
+                    pixels.Codes[i + lane] = (uint)Over(Vector256.Create((int)pixels.Codes[i + lane]), Vector256.Create(weight.GetElement(lane)),
+                        Vector256.Create(red.GetElement(lane)), Vector256.Create(green.GetElement(lane)), Vector256.Create(blue.GetElement(lane)), Vector256<float>.AllBitsSet).ToScalar();
                 }
             Mark(place.Y, place.X, lanes);
         }
@@ -365,7 +366,7 @@ public sealed class LineDrawer
         private void Mark(int y, int x, uint lanes)
         {
             if (lanes == 0) return;
-            byte* rowMarks = pixels.Touched + (y - pixels.Origin) * pixels.GroupsPerRow;
+            byte* rowMarks = pixels.Marks + (y - pixels.Origin) * pixels.GroupsPerRow;
             rowMarks[(uint)(x + BitOperations.TrailingZeroCount(lanes)) / HdrFrame.GroupWidth] = 1;
             rowMarks[(uint)(x + 31 - BitOperations.LeadingZeroCount(lanes)) / HdrFrame.GroupWidth] = 1;
         }
@@ -411,23 +412,25 @@ public sealed class LineDrawer
             return Vector256.Create<float>(lanes);
         }
 
-        /// <summary><see cref="Over"/> for a vector of two rows: lanes 0–3 at <paramref name="index"/>, lanes 4–7 at <paramref name="nextIndex"/>.</summary>
+        /// <summary>
+        /// Premultiplied codes <paramref name="old"/> with the colour laid over them at coverage
+        /// <paramref name="weight"/> in the covered lanes: each code c ← c + w·(colour − c), the coverage
+        /// a ← a + w·(255 − a), rounded (so a code never passes its coverage).
+        /// </summary>
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        private static void OverTwoRows(float* plane, int index, int nextIndex, Vector256<float> weight, Vector256<float> colour, Vector256<float> covered)
+        private static Vector256<int> Over(Vector256<int> old, Vector256<float> weight, Vector256<float> red, Vector256<float> green, Vector256<float> blue,
+            Vector256<float> covered)
         {
-            Vector256<float> old = Vector256.Create(Vector128.Load(plane + index), Vector128.Load(plane + nextIndex));
-            Vector256<float> laid = Vector256.ConditionalSelect(covered, old + weight * (colour - old), old);
-            laid.GetLower().Store(plane + index);
-            laid.GetUpper().Store(plane + nextIndex);
+            Vector256<int> channel = Vector256.Create(0xFF);
+            Vector256<float> oldRed = Vector256.ConvertToSingle(old & channel), oldGreen = Vector256.ConvertToSingle(Vector256.ShiftRightLogical(old, 8) & channel);
+            Vector256<float> oldBlue = Vector256.ConvertToSingle(Vector256.ShiftRightLogical(old, 16) & channel), oldCoverage = Vector256.ConvertToSingle(Vector256.ShiftRightLogical(old, 24));
+            Vector256<int> laid = VectorRounding.Round(Vector256.FusedMultiplyAdd(weight, red - oldRed, oldRed))
+                | Vector256.ShiftLeft(VectorRounding.Round(Vector256.FusedMultiplyAdd(weight, green - oldGreen, oldGreen)), 8)
+                | Vector256.ShiftLeft(VectorRounding.Round(Vector256.FusedMultiplyAdd(weight, blue - oldBlue, oldBlue)), 16)
+                | Vector256.ShiftLeft(VectorRounding.Round(Vector256.FusedMultiplyAdd(weight, Vector256.Create(255f) - oldCoverage, oldCoverage)), 24);
+            return Vector256.ConditionalSelect(covered.AsInt32(), laid, old);
         }
 
-        /// <summary>plane ← plane + weight · (colour − plane) in the covered lanes.</summary>
-        [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        private static void Over(float* plane, Vector256<float> weight, Vector256<float> colour, Vector256<float> covered)
-        {
-            Vector256<float> old = Vector256.Load(plane);
-            Vector256.ConditionalSelect(covered, old + weight * (colour - old), old).Store(plane);
-        }
 
         /// <summary>A float already clamped to a pixel range, as an int, without the checks of a C# cast.</summary>
         private static int ToInt(float value) => float.ConvertToIntegerNative<int>(value);

@@ -10,7 +10,7 @@ public readonly record struct BodyView(NearFieldBody Body, BodyAppearance? Appea
 /// <summary>
 /// The near field as a frame layer: bodies seen at their retarded positions, drawn as opaque surfaces into buffers of
 /// their own with their own depth buffer (and metered), then laid over the stars, and the grid of space drawn in front
-/// of or behind them at a brightness relative to the display. The bodies and then the grid are worked out in steps
+/// of or behind them at a brightness relative to the display, as a guide laid over the tone-mapped picture. The bodies and then the grid are worked out in steps
 /// that each spread over the threads; both are laid over the frame one row band at a time, as the renderer hands the
 /// bands out. Keeps its buffers between frames (they are rebuilt only when the projection changes); the surfaces stay
 /// in them from one frame's rasterising to the next.
@@ -79,14 +79,17 @@ public sealed class NearFieldLayer : IFrameLayer
         _rasterizer!.AddSurfaceLevels(frame.SurfaceLevels);
     }
 
-    public void Composite(FrameContext frame, HdrBand band) => Composite(band, frame.ExposureScale);
+    public void Composite(FrameContext frame, HdrBand band) => Composite(band);
 
-    /// <summary>Both passes at once, for pictures of the near field alone: bodies and grid drawn over <paramref name="hdr"/>, the grid for exposure scale <paramref name="exposureScale"/>.</summary>
-    public void Draw(HdrFrame hdr, Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel, float exposureScale = 1)
+    /// <summary>
+    /// Both passes at once, for pictures of the near field alone: bodies drawn over <paramref name="hdr"/> and the grid
+    /// into <paramref name="guides"/> (display codes, of the same size), where the tone map would lay it over them.
+    /// </summary>
+    public void Draw(HdrFrame hdr, DisplayOverlay guides, Projection projection, ShipState ship, Rotation cameraToShip, ParallelOptions parallel)
     {
         Rasterize(projection, ship, cameraToShip, parallel);
         ParallelItems.For(0, (hdr.Height + StarSplatter.BandHeight - 1) / StarSplatter.BandHeight, parallel, band =>
-            Composite(new HdrBand(hdr, 0, band * StarSplatter.BandHeight, Math.Min(hdr.Height, (band + 1) * StarSplatter.BandHeight)), exposureScale));
+            Composite(new HdrBand(hdr, 0, band * StarSplatter.BandHeight, Math.Min(hdr.Height, (band + 1) * StarSplatter.BandHeight), guides, 0)));
     }
 
     /// <summary>
@@ -142,11 +145,11 @@ public sealed class NearFieldLayer : IFrameLayer
         rasterizer.FillParts(parallel);
     }
 
-    /// <summary>Surfaces over the band, then the grid's lines (depth-tested against the surfaces), brought to the exposure.</summary>
-    private void Composite(HdrBand band, float exposureScale)
+    /// <summary>Surfaces over the band, then the grid's lines (depth-tested against the surfaces) into its overlay.</summary>
+    private void Composite(HdrBand band)
     {
         _rasterizer!.CompositeOver(band);
-        if (_segments.Count > 0) _lineDrawer.Draw(band, 1 / exposureScale);
+        if (_segments.Count > 0) _lineDrawer.Draw(band);
     }
 
     private SkyRasterizer RasterizerFor(Projection projection)

@@ -284,7 +284,8 @@ public sealed class SkyRasterizer
                 Vector256<float> alpha = Lanes(pixels.Alpha, i);
                 uint covered = Vector256.GreaterThan(alpha, Vector256<float>.Zero).ExtractMostSignificantBits();
                 if (covered == 0) continue;
-                Vector256<float> brightest = Vector256.Max(Lanes(pixels.Red, i), Vector256.Max(Lanes(pixels.Green, i), Lanes(pixels.Blue, i)));
+                // The processor's own max: the colours are finite, so the checks that order NaNs need not be paid for.
+                Vector256<float> brightest = Vector256.MaxNative(Lanes(pixels.Red, i), Vector256.MaxNative(Lanes(pixels.Green, i), Lanes(pixels.Blue, i)));
                 levels.Add(brightest / alpha, covered);
             }
             for (; i < end; i++)

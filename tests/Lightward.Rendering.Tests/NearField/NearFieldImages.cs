@@ -7,11 +7,16 @@ namespace Lightward.Rendering.Tests.NearField;
 /// <summary>Renders near-field scenes on a black sky and measures the pictures.</summary>
 internal static class NearFieldImages
 {
-    public static HdrFrame Render(NearFieldLayer layer, Projection projection, ShipState ship, Rotation cameraToShip, int threads = -1)
+    public static HdrFrame Render(NearFieldLayer layer, Projection projection, ShipState ship, Rotation cameraToShip, int threads = -1) =>
+        RenderWithGuides(layer, projection, ship, cameraToShip, threads).Light;
+
+    /// <summary>The bodies' light and the grid's lines (display codes, drawn over the picture), rendered on a black sky.</summary>
+    public static (HdrFrame Light, DisplayOverlay Guides) RenderWithGuides(NearFieldLayer layer, Projection projection, ShipState ship, Rotation cameraToShip, int threads = -1)
     {
         var frame = new HdrFrame(projection.Width, projection.Height);
-        layer.Draw(frame, projection, ship, cameraToShip, new ParallelOptions { MaxDegreeOfParallelism = threads });
-        return frame;
+        var guides = new DisplayOverlay(projection.Width, projection.Height);
+        layer.Draw(frame, guides, projection, ship, cameraToShip, new ParallelOptions { MaxDegreeOfParallelism = threads });
+        return (frame, guides);
     }
 
     /// <summary>A camera at the home origin at home time <paramref name="time"/>, at rest.</summary>

@@ -59,14 +59,16 @@ public class NearFieldRasterTests
         var layer = new NearFieldLayer(bodies, SpaceGrid.AtRestInHome(2, 16));
         var projection = new PerspectiveProjection(320, 200, Math.PI / 2);
         ShipState ship = ShipState.AtRest(new FourVector(0, 0.3, 0.2, 0.1)) with { Frame = new LorentzFrame(new Velocity(1.5, Vec3.UnitZ), Rotation.Identity) };
-        HdrFrame one = NearFieldImages.Render(layer, projection, ship, Rotation.Identity, threads: 1);
-        HdrFrame two = NearFieldImages.Render(layer, projection, ship, Rotation.Identity, threads: 2);
+        (HdrFrame one, DisplayOverlay oneGuides) = NearFieldImages.RenderWithGuides(layer, projection, ship, Rotation.Identity, threads: 1);
+        (HdrFrame two, DisplayOverlay twoGuides) = NearFieldImages.RenderWithGuides(layer, projection, ship, Rotation.Identity, threads: 2);
         HdrFrame again = NearFieldImages.Render(layer, projection, ship, Rotation.Identity, threads: 2);
         // Determinism is our own rule (DEVELOPERS.md): no pixel may depend on thread scheduling.
         Assert.Equal(one.Red, two.Red);
         Assert.Equal(one.Green, two.Green);
         Assert.Equal(one.Blue, again.Blue);
+        Assert.Equal(oneGuides.Pixels, twoGuides.Pixels);
         Assert.True(one.Red.Sum() > 0);
+        Assert.Contains(oneGuides.Pixels, code => code != 0);
     }
 
     [Fact]
@@ -124,13 +126,21 @@ public class NearFieldRasterTests
         var grid = new NearFieldLayer([], SpaceGrid.AtRestInHome(1, 8));
         var projection = new PerspectiveProjection(200, 200, Math.PI / 2);
         ShipState ship = ShipState.AtRest(new FourVector(0, 0.5, 0.5, 0.5)) with { Frame = new LorentzFrame(new Velocity(1, Vec3.UnitZ), Rotation.Identity) };
-        HdrFrame ahead = NearFieldImages.Render(grid, projection, ship, Rotation.Identity);
-        HdrFrame behind = NearFieldImages.Render(grid, projection, ship, Rotation.FromAxisAngle(Vec3.UnitY, Math.PI));
+        DisplayOverlay ahead = NearFieldImages.RenderWithGuides(grid, projection, ship, Rotation.Identity).Guides;
+        DisplayOverlay behind = NearFieldImages.RenderWithGuides(grid, projection, ship, Rotation.FromAxisAngle(Vec3.UnitY, Math.PI)).Guides;
         // Rybicki & Lightman (1979) ch. 4: a blackbody seen with Doppler factor D is a blackbody at D·T, brighter and
-        // bluer ahead (D up to e^φ) and fainter and redder behind (down to e^−φ).
-        double aheadLight = ahead.Red.Sum() + ahead.Green.Sum() + ahead.Blue.Sum(), behindLight = behind.Red.Sum() + behind.Green.Sum() + behind.Blue.Sum();
+        // bluer ahead (D up to e^φ) and fainter and redder behind (down to e^−φ). The lines are display codes:
+        // decoded with the IEC 61966-2-1 transfer function, they compare as (tone-mapped) linear light.
+        double Light(DisplayOverlay guides, int channel)
+        {
+            double sum = 0;
+            for (int y = 0; y < guides.Height; y++)
+                for (int x = 0; x < guides.Width; x++) sum += SrgbTransfer.Decode(guides.Code(x, y, channel) / 255.0);
+            return sum;
+        }
+        double aheadLight = Light(ahead, 0) + Light(ahead, 1) + Light(ahead, 2), behindLight = Light(behind, 0) + Light(behind, 1) + Light(behind, 2);
         Assert.True(aheadLight > 5 * behindLight, $"ahead {aheadLight}, behind {behindLight}");
-        Assert.True(ahead.Blue.Sum() / ahead.Red.Sum() > behind.Blue.Sum() / behind.Red.Sum());
+        Assert.True(Light(ahead, 2) / Light(ahead, 0) > Light(behind, 2) / Light(behind, 0));
     }
 
     [Theory]
@@ -145,7 +155,7 @@ public class NearFieldRasterTests
         ShipState ship = ShipState.AtRest(new FourVector(0, 0.3, 0.2, 0.1)) with { Frame = new LorentzFrame(new Velocity(1.5, new Vec3(0.6, 0, 0.8)), Rotation.Identity) };
         Rotation cameraToShip = NearFieldImages.LookingAlong(new Vec3(1, 0.4, 0.2));
         Projection projection = new Camera(kind, 240, kind == ProjectionKind.Domemaster ? 240 : 160, kind == ProjectionKind.Domemaster ? Math.PI : Math.PI / 3, 0, Exposure.Auto).CreateProjection();
-        HdrFrame frame = NearFieldImages.Render(new NearFieldLayer([], grid), projection, ship, cameraToShip);
+        DisplayOverlay lines = NearFieldImages.RenderWithGuides(new NearFieldLayer([], grid), projection, ship, cameraToShip).Guides;
         RestFrameSight sight = RestFrameSight.Of(grid.Origin, grid.Frame, ship, cameraToShip);
         Vec3 camera = sight.CameraEvent.Space;
         int checkedPoints = 0;
@@ -162,7 +172,7 @@ public class NearFieldRasterTests
                 if (px < 2 || py < 2 || px >= projection.Width - 2 || py >= projection.Height - 2) continue;
                 bool drawn = false;
                 for (int dy = -1; dy <= 1; dy++)
-                    for (int dx = -1; dx <= 1; dx++) drawn |= frame.Luminance(px + dx, py + dy) > 0;
+                    for (int dx = -1; dx <= 1; dx++) drawn |= lines.Coverage(px + dx, py + dy) > 0;
                 Assert.True(drawn, $"line point {point} seen at ({x:F1}, {y:F1}) is not drawn");
                 checkedPoints++;
             }
@@ -197,7 +207,7 @@ public class NearFieldRasterTests
         // Lattice lines where they cross the last, partial group of the rows: each point's image is drawn (its place
         // comes from the closed-form retarded sight, checked against the aberration formulas in RestFrameSightTests).
         var grid = SpaceGrid.AtRestInHome(1, 10);
-        HdrFrame lines = Draw(new NearFieldLayer([], grid));
+        DisplayOverlay lines = NearFieldImages.RenderWithGuides(new NearFieldLayer([], grid), projection, ship, Rotation.Identity).Guides;
         RestFrameSight sight = RestFrameSight.Of(grid.Origin, grid.Frame, ship, Rotation.Identity);
         int checkedPoints = 0;
         var latticeLines = new List<(Vec3 From, Vec3 To)>();
@@ -213,7 +223,7 @@ public class NearFieldRasterTests
                 if (px < projection.Width - 3 || px >= projection.Width || py < 1 || py >= projection.Height - 1) continue;
                 bool drawn = false;
                 for (int dy = -1; dy <= 1; dy++)
-                    for (int dx = -1; dx <= 1 && px + dx < projection.Width; dx++) drawn |= lines.Luminance(px + dx, py + dy) > 0;
+                    for (int dx = -1; dx <= 1 && px + dx < projection.Width; dx++) drawn |= lines.Coverage(px + dx, py + dy) > 0;
                 Assert.True(drawn, $"line point {point} seen at ({x:F1}, {y:F1}) is not drawn");
                 checkedPoints++;
             }
