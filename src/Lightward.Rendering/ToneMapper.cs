@@ -161,6 +161,29 @@ public static class ToneMapper
     internal static unsafe void MapMarkedRows(in MarkedPlanes planes, uint* rgba, int rgbaStride, int width, int rows, float exposureScale,
         ushort* lit, int litStride, bool litKnown)
     {
+        if (planes.Overlay == null) MapMarkedRows<WithoutOverlay>(planes, rgba, rgbaStride, width, rows, exposureScale, lit, litStride, litKnown);
+        else MapMarkedRows<WithOverlay>(planes, rgba, rgbaStride, width, rows, exposureScale, lit, litStride, litKnown);
+    }
+
+    /// <summary>Whether the rows being mapped have a display overlay: a type argument, so that the stars-only frame's loops carry no trace of it.</summary>
+    private interface IOverlayPresence
+    {
+        static abstract bool Present { get; }
+    }
+
+    private readonly struct WithOverlay : IOverlayPresence
+    {
+        public static bool Present => true;
+    }
+
+    private readonly struct WithoutOverlay : IOverlayPresence
+    {
+        public static bool Present => false;
+    }
+
+    private static unsafe void MapMarkedRows<TOverlay>(in MarkedPlanes planes, uint* rgba, int rgbaStride, int width, int rows, float exposureScale,
+        ushort* lit, int litStride, bool litKnown) where TOverlay : struct, IOverlayPresence
+    {
         litKnown &= lit != null;
         int groups = (width + HdrFrame.GroupWidth - 1) / HdrFrame.GroupWidth, blocksPerRow = (groups + MarkBlock - 1) / MarkBlock;
         // Per block of 16 groups: the marked ones, and those to write black, in 64-bit words of four blocks. A row of one
@@ -172,10 +195,10 @@ public static class ToneMapper
         // Otherwise a tile's few dozen output lines are asked for ahead of their writes; a whole band's (about a thousand
         // under the grid of space) would queue behind one another, and asking for them made the near-field frame 7 % slower.
         bool prefetch = !wholeLines && litKnown && blocksPerRow == 1;
-        ushort* marked = stackalloc ushort[paddedBlocks], dark = stackalloc ushort[paddedBlocks], laid = stackalloc ushort[paddedBlocks];
+        ushort* marked = stackalloc ushort[paddedBlocks], dark = stackalloc ushort[paddedBlocks], laid = stackalloc ushort[TOverlay.Present ? paddedBlocks : 0];
         new Span<ushort>(marked, paddedBlocks).Clear();
         new Span<ushort>(dark, paddedBlocks).Clear();
-        new Span<ushort>(laid, paddedBlocks).Clear();
+        if (TOverlay.Present) new Span<ushort>(laid, paddedBlocks).Clear();
         for (int row = 0; row < rows; row++)
         {
             uint* rowPixels = rgba + (long)row * rgbaStride;
@@ -186,9 +209,9 @@ public static class ToneMapper
             {
                 int count = Math.Min(MarkBlock, groups - block * MarkBlock);
                 ushort mask = TakeMarks(rowMarks + block * MarkBlock, count);
-                ushort overlaid = planes.OverlayMarks == null ? (ushort)0 : TakeMarks(rowOverlayMarks + block * MarkBlock, count);
+                ushort overlaid = TOverlay.Present ? TakeMarks(rowOverlayMarks + block * MarkBlock, count) : (ushort)0;
                 marked[at] = mask;
-                laid[at] = overlaid;
+                if (TOverlay.Present) laid[at] = overlaid;
                 dark[at] = (ushort)((litKnown ? rowLit[block] : (1u << count) - 1) & ~(mask | overlaid));
                 if (prefetch) PrefetchGroups(rowPixels + block * MarkBlock * HdrFrame.GroupWidth, (uint)(mask | overlaid | dark[at]));
                 if (lit != null) rowLit[block] = (ushort)(mask | overlaid);
@@ -199,7 +222,7 @@ public static class ToneMapper
         {
             if (wholeLines)
             {
-                MapWholeLines(planes, rgba, rgbaStride, marked, dark, laid, paddedBlocks, maskRowStride, scale, table);
+                MapWholeLines<TOverlay>(planes, rgba, rgbaStride, marked, dark, laid, paddedBlocks, maskRowStride, scale, table);
                 return;
             }
             int wholeGroups = width / HdrFrame.GroupWidth;
@@ -212,7 +235,7 @@ public static class ToneMapper
                     (int row, int group) = Locate(wordRow, wordBlock, BitOperations.TrailingZeroCount(bits), maskRowStride);
                     WriteBlack(rgba + (long)row * rgbaStride, group * HdrFrame.GroupWidth, width);
                 }
-                ulong mappedBits = *(ulong*)(marked + word), laidBits = *(ulong*)(laid + word);
+                ulong mappedBits = *(ulong*)(marked + word), laidBits = TOverlay.Present ? *(ulong*)(laid + word) : 0;
                 for (ulong bits = mappedBits | laidBits; bits != 0; bits &= bits - 1)
                 {
                     int bit = BitOperations.TrailingZeroCount(bits);
@@ -245,14 +268,14 @@ public static class ToneMapper
     /// lines a frame writes were last written a frame ago and are far from the core by now (on a 2-core AMD EPYC this
     /// took 3–4 % off the 1080p star frame at rest and 7–10 % off a turning one). Needs rows that start on lines.
     /// </summary>
-    private static unsafe void MapWholeLines(in MarkedPlanes planes, uint* rgba, int rgbaStride, ushort* marked, ushort* dark, ushort* laid, int paddedBlocks,
-        int maskRowStride, Vector256<float> scale, byte* table)
+    private static unsafe void MapWholeLines<TOverlay>(in MarkedPlanes planes, uint* rgba, int rgbaStride, ushort* marked, ushort* dark, ushort* laid, int paddedBlocks,
+        int maskRowStride, Vector256<float> scale, byte* table) where TOverlay : struct, IOverlayPresence
     {
         const ulong FirstOfEachPair = 0x5555_5555_5555_5555;
         for (int word = 0; word < paddedBlocks; word += 4)
         {
             (int wordRow, int wordBlock) = Math.DivRem(word, maskRowStride);
-            ulong mapped = *(ulong*)(marked + word), overlaid = *(ulong*)(laid + word), written = mapped | overlaid | *(ulong*)(dark + word);
+            ulong mapped = *(ulong*)(marked + word), overlaid = TOverlay.Present ? *(ulong*)(laid + word) : 0, written = mapped | overlaid | *(ulong*)(dark + word);
             // Bit 2k stands for the line of groups 2k and 2k + 1; a block holds 16 groups, so no line spans two blocks.
             for (ulong lines = (written | written >> 1) & FirstOfEachPair; lines != 0; lines &= lines - 1)
             {
@@ -260,8 +283,8 @@ public static class ToneMapper
                 (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
                 int first = group * HdrFrame.GroupWidth, pixel = row * planes.Stride + first;
                 int* line = (int*)(rgba + (long)row * rgbaStride + first);
-                Avx.StoreAlignedNonTemporal(line, GroupToWrite(planes, pixel, mapped >> bit, overlaid >> bit, scale, table));
-                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, GroupToWrite(planes, pixel + HdrFrame.GroupWidth, mapped >> bit >> 1, overlaid >> bit >> 1, scale, table));
+                Avx.StoreAlignedNonTemporal(line, GroupToWrite<TOverlay>(planes, pixel, mapped >> bit, overlaid >> bit, scale, table));
+                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, GroupToWrite<TOverlay>(planes, pixel + HdrFrame.GroupWidth, mapped >> bit >> 1, overlaid >> bit >> 1, scale, table));
             }
         }
         // Non-temporal stores are weakly ordered: they must reach memory before another thread reads the image.
@@ -273,11 +296,12 @@ public static class ToneMapper
     /// black (what an unmarked group holds), with its overlay laid over it when bit 0 of <paramref name="overlaid"/> is.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static unsafe Vector256<int> GroupToWrite(in MarkedPlanes planes, int pixel, ulong mapped, ulong overlaid, Vector256<float> scale, byte* table)
+    private static unsafe Vector256<int> GroupToWrite<TOverlay>(in MarkedPlanes planes, int pixel, ulong mapped, ulong overlaid, Vector256<float> scale, byte* table)
+        where TOverlay : struct, IOverlayPresence
     {
         bool isMapped = (mapped & 1) != 0;
         Vector256<int> pixels = isMapped ? MapGroup(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, scale, table) : Vector256.Create(unchecked((int)OpaqueBlack));
-        return (overlaid & 1) != 0 ? LayOverGroup(pixels, planes.Overlay + pixel, underIsBlack: !isMapped) : pixels;
+        return TOverlay.Present && (overlaid & 1) != 0 ? LayOverGroup(pixels, planes.Overlay + pixel, underIsBlack: !isMapped) : pixels;
     }
 
     /// <summary>
@@ -390,12 +414,12 @@ public static class ToneMapper
                 if (((nint)rgba & (RgbaImage.LineBytes - 1)) == 0 && count % PixelsPerLine == 0 && HdrFrame.GroupWidth == Vector256<float>.Count)
                 {
                     for (; pixel < count; pixel += Vector256<float>.Count)
-                        Avx.StoreAlignedNonTemporal((int*)(rgba + pixel), WithOverlay(MapGroup(red + pixel, green + pixel, blue + pixel, scale, table), overlay, overlayMarks, pixel));
+                        Avx.StoreAlignedNonTemporal((int*)(rgba + pixel), MappedWithOverlay(MapGroup(red + pixel, green + pixel, blue + pixel, scale, table), overlay, overlayMarks, pixel));
                     Sse.StoreFence();
                     return;
                 }
                 for (; pixel + Vector256<float>.Count <= count; pixel += Vector256<float>.Count)
-                    Avx.Store((int*)(rgba + pixel), WithOverlay(MapGroup(red + pixel, green + pixel, blue + pixel, scale, table), overlay, overlayMarks, pixel));
+                    Avx.Store((int*)(rgba + pixel), MappedWithOverlay(MapGroup(red + pixel, green + pixel, blue + pixel, scale, table), overlay, overlayMarks, pixel));
             }
             bool tailOverlaid = overlayMarks != null && pixel < count && overlayMarks[pixel / HdrFrame.GroupWidth] != 0;
             if (tailOverlaid) overlayMarks[pixel / HdrFrame.GroupWidth] = 0;
@@ -415,7 +439,7 @@ public static class ToneMapper
 
     /// <summary>The mapped group from <paramref name="pixel"/> with its overlay laid over it (and emptied, mark and all) if it has one.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static unsafe Vector256<int> WithOverlay(Vector256<int> mapped, uint* overlay, byte* overlayMarks, int pixel)
+    private static unsafe Vector256<int> MappedWithOverlay(Vector256<int> mapped, uint* overlay, byte* overlayMarks, int pixel)
     {
         if (overlayMarks == null || overlayMarks[pixel / HdrFrame.GroupWidth] == 0) return mapped;
         overlayMarks[pixel / HdrFrame.GroupWidth] = 0;
