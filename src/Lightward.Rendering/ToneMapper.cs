@@ -72,12 +72,12 @@ public static class ToneMapper
             byte* laidMarks = overlay is null ? null : overlayMarks + (long)(overlayFirstRow - firstRow) * hdr.GroupsPerRow;
             if (hdr.WhollyTouched)
             {
-                for (int row = firstRow; row < endRow; row++)
-                {
-                    int start = row * hdr.Width;
-                    MapAndClear(red + start, green + start, blue + start, rgba + start, hdr.Width, exposureScale,
-                        overlay is null ? null : laidPixels + start, overlay is null ? null : laidMarks + row * hdr.GroupsPerRow);
-                }
+                int start = firstRow * hdr.Width;
+                // Without an overlay the rows are one run; with one, each row starts its groups (and their marks) afresh.
+                if (overlay is null) MapAndClear(red + start, green + start, blue + start, rgba + start, (endRow - firstRow) * hdr.Width, exposureScale);
+                else
+                    for (int row = firstRow; row < endRow; row++, start += hdr.Width)
+                        MapAndClear(red + start, green + start, blue + start, rgba + start, hdr.Width, exposureScale, laidPixels + start, laidMarks + row * hdr.GroupsPerRow);
                 new Span<byte>(touched + firstRow * hdr.GroupsPerRow, (endRow - firstRow) * hdr.GroupsPerRow).Clear();
                 return;
             }
