@@ -2,6 +2,9 @@ using System.Numerics;
 using System.Runtime.CompilerServices;
 using System.Runtime.Intrinsics;
 using System.Runtime.Intrinsics.X86;
+// Whether the rows being mapped have a display overlay: the stars-only frame's loops carry no trace of it.
+using WithOverlay = Lightward.Rendering.FlagSet;
+using WithoutOverlay = Lightward.Rendering.FlagUnset;
 
 namespace Lightward.Rendering;
 
@@ -165,24 +168,8 @@ public static class ToneMapper
         else MapMarkedRows<WithOverlay>(planes, rgba, rgbaStride, width, rows, exposureScale, lit, litStride, litKnown);
     }
 
-    /// <summary>Whether the rows being mapped have a display overlay: a type argument, so that the stars-only frame's loops carry no trace of it.</summary>
-    private interface IOverlayPresence
-    {
-        static abstract bool Present { get; }
-    }
-
-    private readonly struct WithOverlay : IOverlayPresence
-    {
-        public static bool Present => true;
-    }
-
-    private readonly struct WithoutOverlay : IOverlayPresence
-    {
-        public static bool Present => false;
-    }
-
     private static unsafe void MapMarkedRows<TOverlay>(in MarkedPlanes planes, uint* rgba, int rgbaStride, int width, int rows, float exposureScale,
-        ushort* lit, int litStride, bool litKnown) where TOverlay : struct, IOverlayPresence
+        ushort* lit, int litStride, bool litKnown) where TOverlay : struct, ITypeFlag
     {
         litKnown &= lit != null;
         int groups = (width + HdrFrame.GroupWidth - 1) / HdrFrame.GroupWidth, blocksPerRow = (groups + MarkBlock - 1) / MarkBlock;
@@ -195,10 +182,10 @@ public static class ToneMapper
         // Otherwise a tile's few dozen output lines are asked for ahead of their writes; a whole band's (about a thousand
         // under the grid of space) would queue behind one another, and asking for them made the near-field frame 7 % slower.
         bool prefetch = !wholeLines && litKnown && blocksPerRow == 1;
-        ushort* marked = stackalloc ushort[paddedBlocks], dark = stackalloc ushort[paddedBlocks], laid = stackalloc ushort[TOverlay.Present ? paddedBlocks : 0];
+        ushort* marked = stackalloc ushort[paddedBlocks], dark = stackalloc ushort[paddedBlocks], laid = stackalloc ushort[TOverlay.IsSet ? paddedBlocks : 0];
         new Span<ushort>(marked, paddedBlocks).Clear();
         new Span<ushort>(dark, paddedBlocks).Clear();
-        if (TOverlay.Present) new Span<ushort>(laid, paddedBlocks).Clear();
+        if (TOverlay.IsSet) new Span<ushort>(laid, paddedBlocks).Clear();
         for (int row = 0; row < rows; row++)
         {
             uint* rowPixels = rgba + (long)row * rgbaStride;
@@ -209,9 +196,9 @@ public static class ToneMapper
             {
                 int count = Math.Min(MarkBlock, groups - block * MarkBlock);
                 ushort mask = TakeMarks(rowMarks + block * MarkBlock, count);
-                ushort overlaid = TOverlay.Present ? TakeMarks(rowOverlayMarks + block * MarkBlock, count) : (ushort)0;
+                ushort overlaid = TOverlay.IsSet ? TakeMarks(rowOverlayMarks + block * MarkBlock, count) : (ushort)0;
                 marked[at] = mask;
-                if (TOverlay.Present) laid[at] = overlaid;
+                if (TOverlay.IsSet) laid[at] = overlaid;
                 dark[at] = (ushort)((litKnown ? rowLit[block] : (1u << count) - 1) & ~(mask | overlaid));
                 if (prefetch) PrefetchGroups(rowPixels + block * MarkBlock * HdrFrame.GroupWidth, (uint)(mask | overlaid | dark[at]));
                 if (lit != null) rowLit[block] = (ushort)(mask | overlaid);
@@ -235,7 +222,7 @@ public static class ToneMapper
                     (int row, int group) = Locate(wordRow, wordBlock, BitOperations.TrailingZeroCount(bits), maskRowStride);
                     WriteBlack(rgba + (long)row * rgbaStride, group * HdrFrame.GroupWidth, width);
                 }
-                ulong mappedBits = *(ulong*)(marked + word), laidBits = TOverlay.Present ? *(ulong*)(laid + word) : 0;
+                ulong mappedBits = *(ulong*)(marked + word), laidBits = TOverlay.IsSet ? *(ulong*)(laid + word) : 0;
                 for (ulong bits = mappedBits | laidBits; bits != 0; bits &= bits - 1)
                 {
                     int bit = BitOperations.TrailingZeroCount(bits);
@@ -269,13 +256,13 @@ public static class ToneMapper
     /// took 3–4 % off the 1080p star frame at rest and 7–10 % off a turning one). Needs rows that start on lines.
     /// </summary>
     private static unsafe void MapWholeLines<TOverlay>(in MarkedPlanes planes, uint* rgba, int rgbaStride, ushort* marked, ushort* dark, ushort* laid, int paddedBlocks,
-        int maskRowStride, Vector256<float> scale, byte* table) where TOverlay : struct, IOverlayPresence
+        int maskRowStride, Vector256<float> scale, byte* table) where TOverlay : struct, ITypeFlag
     {
         const ulong FirstOfEachPair = 0x5555_5555_5555_5555;
         for (int word = 0; word < paddedBlocks; word += 4)
         {
             (int wordRow, int wordBlock) = Math.DivRem(word, maskRowStride);
-            ulong mapped = *(ulong*)(marked + word), overlaid = TOverlay.Present ? *(ulong*)(laid + word) : 0, written = mapped | overlaid | *(ulong*)(dark + word);
+            ulong mapped = *(ulong*)(marked + word), overlaid = TOverlay.IsSet ? *(ulong*)(laid + word) : 0, written = mapped | overlaid | *(ulong*)(dark + word);
             // Bit 2k stands for the line of groups 2k and 2k + 1; a block holds 16 groups, so no line spans two blocks.
             for (ulong lines = (written | written >> 1) & FirstOfEachPair; lines != 0; lines &= lines - 1)
             {
@@ -297,11 +284,11 @@ public static class ToneMapper
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static unsafe Vector256<int> GroupToWrite<TOverlay>(in MarkedPlanes planes, int pixel, ulong mapped, ulong overlaid, Vector256<float> scale, byte* table)
-        where TOverlay : struct, IOverlayPresence
+        where TOverlay : struct, ITypeFlag
     {
         bool isMapped = (mapped & 1) != 0;
         Vector256<int> pixels = isMapped ? MapGroup(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, scale, table) : Vector256.Create(unchecked((int)OpaqueBlack));
-        return TOverlay.Present && (overlaid & 1) != 0 ? LayOverGroup(pixels, planes.Overlay + pixel, underIsBlack: !isMapped) : pixels;
+        return TOverlay.IsSet && (overlaid & 1) != 0 ? LayOverGroup(pixels, planes.Overlay + pixel, underIsBlack: !isMapped) : pixels;
     }
 
     /// <summary>

@@ -2,6 +2,14 @@ using System.Numerics;
 using System.Runtime.CompilerServices;
 using System.Runtime.Intrinsics;
 using Lightward.Spacetime;
+// Whether a line's pixels are each tested for a surface in front and for showing sky (so that the common untested
+// loop carries no trace of the tests), and how a vector's eight lanes sit on the image: eight neighbouring pixels of
+// one row, or four of each of two rows (a steep line's window across two consecutive rows, so that its arithmetic and
+// its loads serve both at once).
+using EveryPixelTested = Lightward.Rendering.FlagSet;
+using NoPixelTested = Lightward.Rendering.FlagUnset;
+using RowOfEight = Lightward.Rendering.FlagUnset;
+using TwoRowsOfFour = Lightward.Rendering.FlagSet;
 
 namespace Lightward.Rendering.NearField;
 
@@ -174,41 +182,6 @@ public sealed class LineDrawer
         public readonly int Width = overlay.Width, GroupsPerRow = overlay.GroupsPerRow, Origin = origin;
     }
 
-    /// <summary>Whether a line's pixels are each tested for a surface in front and for showing sky: a type argument, so that the common untested loop carries no trace of the tests.</summary>
-    private interface IPixelTests
-    {
-        static abstract bool Enabled { get; }
-    }
-
-    private readonly struct EveryPixelTested : IPixelTests
-    {
-        public static bool Enabled => true;
-    }
-
-    private readonly struct NoPixelTested : IPixelTests
-    {
-        public static bool Enabled => false;
-    }
-
-    /// <summary>
-    /// How a vector's eight lanes sit on the image: eight neighbouring pixels of one row, or four of each of two rows
-    /// (a steep line's window across two consecutive rows, so that its arithmetic and its loads serve both at once).
-    /// </summary>
-    private interface ILaneShape
-    {
-        static abstract bool TwoRows { get; }
-    }
-
-    private readonly struct RowOfEight : ILaneShape
-    {
-        public static bool TwoRows => false;
-    }
-
-    private readonly struct TwoRowsOfFour : ILaneShape
-    {
-        public static bool TwoRows => true;
-    }
-
     /// <summary>Where a vector's lanes lie: lanes 0–7 from column <see cref="X"/> of row <see cref="Y"/>, or lanes 4–7 from column <see cref="NextX"/> of row <see cref="NextY"/> when the shape has two rows.</summary>
     private readonly record struct LanePlace(int Y, int X, int NextY, int NextX);
 
@@ -231,14 +204,14 @@ public sealed class LineDrawer
         public bool TestsPixels => testDepth || testSky;
 
         /// <summary>The stroke's pixels in rows [<paramref name="top"/>, <paramref name="bottom"/>).</summary>
-        public void Draw<TTests>(int top, int bottom) where TTests : struct, IPixelTests
+        public void Draw<TTests>(int top, int bottom) where TTests : struct, ITypeFlag
         {
             if (_alongX) DrawRowsOfColumns<TTests>(top, bottom);
             else DrawRows<TTests>(Math.Max(_first, top), Math.Min(_last, bottom - 1));
         }
 
         /// <summary>A line along x: rows [<paramref name="top"/>, <paramref name="bottom"/>), each over the columns where the line passes within reach of it.</summary>
-        private void DrawRowsOfColumns<TTests>(int top, int bottom) where TTests : struct, IPixelTests
+        private void DrawRowsOfColumns<TTests>(int top, int bottom) where TTests : struct, ITypeFlag
         {
             int firstRow = ToInt(Math.Max(top, MathF.Floor(_lowY) - Reach)), lastRow = ToInt(Math.Min(bottom - 1, MathF.Ceiling(_highY) + Reach));
             // Major change per unit of minor; the tent reaches 1 / perpendicular (at most √2) pixels across.
@@ -269,7 +242,7 @@ public sealed class LineDrawer
         /// where the line crosses it, two rows at a time (one vector holds both rows' four pixels) except at the right
         /// edge of the image, where a row's window is laid on its own.
         /// </summary>
-        private void DrawRows<TTests>(int first, int last) where TTests : struct, IPixelTests
+        private void DrawRows<TTests>(int first, int last) where TTests : struct, ITypeFlag
         {
             int y = first;
             for (; y < last; y += 2)
@@ -307,7 +280,7 @@ public sealed class LineDrawer
         }
 
         /// <summary>A steep line's window in row <paramref name="y"/> on its own.</summary>
-        private void LayRow<TTests>(int y, RowWindow window) where TTests : struct, IPixelTests
+        private void LayRow<TTests>(int y, RowWindow window) where TTests : struct, ITypeFlag
         {
             if (window.To < window.From) return;
             Lay<TTests, RowOfEight>(new LanePlace(y, window.From, y, window.From), Vector256.Create(window.To),
@@ -319,24 +292,24 @@ public sealed class LineDrawer
         /// each <paramref name="offset"/> pixels across from the line at parameter <paramref name="t"/>.
         /// </summary>
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        private void Lay<TTests, TShape>(LanePlace place, Vector256<int> lastColumns, Vector256<float> offset, Vector256<float> t)
-            where TTests : struct, IPixelTests where TShape : struct, ILaneShape
+        private void Lay<TTests, TTwoRows>(LanePlace place, Vector256<int> lastColumns, Vector256<float> offset, Vector256<float> t)
+            where TTests : struct, ITypeFlag where TTwoRows : struct, ITypeFlag
         {
             Vector256<float> weight = Vector256<float>.One - Vector256.Abs(offset) * Vector256.Create(_perpendicular);
-            Vector256<int> columns = TShape.TwoRows
+            Vector256<int> columns = TTwoRows.IsSet
                 ? Vector256.Create(Vector128.Create(place.X), Vector128.Create(place.NextX)) + TwoRowIndices
                 : Vector256.Create(place.X) + VectorLanes.Indices;
             Vector256<float> covered = Vector256.GreaterThan(weight, Vector256<float>.Zero) & Vector256.LessThanOrEqual(columns, lastColumns).AsSingle();
             // Index of each row's first lane in the frame (depth, sky) and in the band's buffer (colour).
             int pixel = place.Y * _width + place.X, i = pixel - pixels.Origin * _width;
             int nextPixel = place.NextY * _width + place.NextX, nextI = nextPixel - pixels.Origin * _width;
-            if (TTests.Enabled) covered &= Visible<TShape>(place, columns, pixel, nextPixel, Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
+            if (TTests.IsSet) covered &= Visible<TTwoRows>(place, columns, pixel, nextPixel, Vector256.Create(_depth0) + t * Vector256.Create(_depthChange));
             uint lanes = covered.ExtractMostSignificantBits();
             if (lanes == 0) return;
             Vector256<float> red = Vector256.Create(_colour0.X) + t * Vector256.Create(_colourChange.X);
             Vector256<float> green = Vector256.Create(_colour0.Y) + t * Vector256.Create(_colourChange.Y);
             Vector256<float> blue = Vector256.Create(_colour0.Z) + t * Vector256.Create(_colourChange.Z);
-            if (TShape.TwoRows)
+            if (TTwoRows.IsSet)
             {
                 uint* upper = pixels.Codes + i, lower = pixels.Codes + nextI;
                 Vector256<int> laid = Over(Vector256.Create(Vector128.Load((int*)upper), Vector128.Load((int*)lower)), weight, red, green, blue, covered);
@@ -376,13 +349,13 @@ public sealed class LineDrawer
         /// and, for two rows, <paramref name="nextPixel"/>) not behind a surface (line depth <paramref name="lineDepth"/>)
         /// and showing sky.
         /// </summary>
-        private Vector256<float> Visible<TShape>(LanePlace place, Vector256<int> columns, int pixel, int nextPixel, Vector256<float> lineDepth)
-            where TShape : struct, ILaneShape
+        private Vector256<float> Visible<TTwoRows>(LanePlace place, Vector256<int> columns, int pixel, int nextPixel, Vector256<float> lineDepth)
+            where TTwoRows : struct, ITypeFlag
         {
             Vector256<float> visible = Vector256<float>.AllBitsSet;
             if (testDepth)
             {
-                Vector256<float> surfaceDepth = TShape.TwoRows
+                Vector256<float> surfaceDepth = TTwoRows.IsSet
                     ? Vector256.Create(Vector128.Load(pixels.Depth + pixel), Vector128.Load(pixels.Depth + nextPixel))
                     : Lanes(pixels.Depth + pixel, Math.Min(VectorLanes.Count, _width - place.X));
                 visible = Vector256.LessThanOrEqual(lineDepth, surfaceDepth);
@@ -391,7 +364,7 @@ public sealed class LineDrawer
             {
                 (int first, int last) = pixels.Sky.SkyColumns(place.Y);
                 Vector256<int> firstSky = Vector256.Create(first), lastSky = Vector256.Create(last);
-                if (TShape.TwoRows)
+                if (TTwoRows.IsSet)
                 {
                     (int nextFirst, int nextLast) = pixels.Sky.SkyColumns(place.NextY);
                     firstSky = Vector256.Create(Vector128.Create(first), Vector128.Create(nextFirst));
