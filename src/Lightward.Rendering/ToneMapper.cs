@@ -408,8 +408,7 @@ public static class ToneMapper
                 for (; pixel + Vector256<float>.Count <= count; pixel += Vector256<float>.Count)
                     Avx.Store((int*)(rgba + pixel), MappedWithOverlay(MapGroup(red + pixel, green + pixel, blue + pixel, scale, table), overlay, overlayMarks, pixel));
             }
-            bool tailOverlaid = overlayMarks != null && pixel < count && overlayMarks[pixel / HdrFrame.GroupWidth] != 0;
-            if (tailOverlaid) overlayMarks[pixel / HdrFrame.GroupWidth] = 0;
+            int tail = pixel;
             for (; pixel < count; pixel++)
             {
                 uint r = (uint)table[TableIndex(red[pixel] * exposureScale)];
@@ -417,10 +416,13 @@ public static class ToneMapper
                 uint b = (uint)table[TableIndex(blue[pixel] * exposureScale)];
                 rgba[pixel] = r | g << 8 | b << 16 | OpaqueBlack;
                 red[pixel] = green[pixel] = blue[pixel] = 0;
-                if (!tailOverlaid) continue;
+                if (overlayMarks == null || overlayMarks[pixel / HdrFrame.GroupWidth] == 0) continue;
                 rgba[pixel] = LayOver(overlay[pixel], rgba[pixel]);
                 overlay[pixel] = 0;
             }
+            // The marks of the groups laid one pixel at a time go once their last pixel is done.
+            if (overlayMarks != null && tail < count)
+                new Span<byte>(overlayMarks + tail / HdrFrame.GroupWidth, (count - 1) / HdrFrame.GroupWidth - tail / HdrFrame.GroupWidth + 1).Clear();
         }
     }
 
