@@ -282,8 +282,9 @@ public sealed unsafe class SkyTransform
             var position = (Load(stars.LogTemperature, i) + logDoppler - origin) * scale;
             // Same lookup as BlackbodyTable.Sample: below the table is black; past its end ln L extrapolates, colour holds.
             var belowTable = Vector.LessThan(position, Vector<float>.Zero);
-            // The processor's own max, min and conversion: a NaN position takes the first operand's place in the
-            // max and comes out as entry 0, and the saturating forms' extra checks cost 3 % of a star frame.
+            // The processor's own max, min and conversion, whose NaN handling the saturating forms' extra checks (3 % of
+            // a star frame) only restate: a NaN position still comes out as entry 0 (x86's max returns its second
+            // operand, zero; Arm's conversion turns NaN into 0).
             var index = Vector.ConvertToInt32Native(Vector.MinNative(Vector.MaxNative(position, Vector<float>.Zero), lastEntry));
             var fraction = position - Vector.ConvertToSingle(index);
             var colorFraction = Vector.Min(fraction, Vector<float>.One);

@@ -237,6 +237,7 @@ public static class ToneMapper
                         Avx.Store((int*)output, overlaid ? LayOverGroup(pixels, planes.Overlay + pixel, underIsBlack: !mapped) : pixels);
                         continue;
                     }
+                    // The group's overlay mark was taken into the masks above; a mark of its own tells the partial group's mapping.
                     byte laidMark = overlaid ? (byte)1 : (byte)0;
                     MapAndClear(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, output, Math.Min(HdrFrame.GroupWidth, width - first), exposureScale,
                         overlaid ? planes.Overlay + pixel : null, overlaid ? &laidMark : null);
