@@ -216,16 +216,20 @@ public sealed class LineDrawer
             int firstRow = ToInt(Math.Max(top, MathF.Floor(_lowY) - Reach)), lastRow = ToInt(Math.Min(bottom - 1, MathF.Ceiling(_highY) + Reach));
             // Major change per unit of minor; the tent reaches 1 / perpendicular (at most √2) pixels across.
             float slope = _minorChange * _inverseSpan, inverseSlope = 1 / slope, reach = 1 / _perpendicular;
+            // Added to a row's centre, the minor offsets (from the line's start) where the tent's reach ends on the side
+            // of lower and of higher major coordinates: which side is which depends only on the sign of the slope.
+            float lowSide = (slope > 0 ? -reach : reach) - _minorStart, highSide = (slope > 0 ? reach : -reach) - _minorStart;
             for (int y = firstRow; y <= lastRow; y++)
             {
                 float centre = y + 0.5f;
                 int from = _first, to = _last;
                 if (slope != 0)
                 {
-                    // Major coordinates where the line is the tent's reach above and below this row's centre, widened by a pixel for rounding.
-                    float u0 = _start + (centre - reach - _minorStart) * inverseSlope, u1 = _start + (centre + reach - _minorStart) * inverseSlope;
-                    from = ToInt(Math.Max(_first, MathF.Floor(MathF.Min(u0, u1)) - 1));
-                    to = ToInt(Math.Min(_last, MathF.Ceiling(MathF.Max(u0, u1)) + 1));
+                    // Major coordinates where the line is the tent's reach from this row's centre, widened by a pixel for
+                    // rounding. The native max and min are plain instructions (this runs for every row a line crosses);
+                    // NaN, which finite segments never give, would fall to the segment's own ends.
+                    from = ToInt(float.MaxNative(MathF.Floor(_start + (centre + lowSide) * inverseSlope) - 1, _first));
+                    to = ToInt(float.MinNative(MathF.Ceiling(_start + (centre + highSide) * inverseSlope) + 1, _last));
                 }
                 else if (!(MathF.Abs(centre - _minorStart) < reach)) continue;
                 for (int x = from; x <= to; x += VectorLanes.Count)
