@@ -325,9 +325,10 @@ public sealed class SkyRasterizer
 
         if (onA && onB && onC && ImagePlacement.TryPlace(projection, centre, out double mx, out double my))
         {
-            double minX = Math.Min(Math.Min(ax, bx), Math.Min(cx, mx)), maxX = Math.Max(Math.Max(ax, bx), Math.Max(cx, mx));
-            double minY = Math.Min(Math.Min(ay, by), Math.Min(cy, my)), maxY = Math.Max(Math.Max(ay, by), Math.Max(cy, my));
-            double extent = Math.Max(maxX - minX, maxY - minY);
+            // Placed positions are finite, so the native min and max (plain instructions, not NaN-aware chains) serve.
+            double minX = double.MinNative(double.MinNative(ax, bx), double.MinNative(cx, mx)), maxX = double.MaxNative(double.MaxNative(ax, bx), double.MaxNative(cx, mx));
+            double minY = double.MinNative(double.MinNative(ay, by), double.MinNative(cy, my)), maxY = double.MaxNative(double.MaxNative(ay, by), double.MaxNative(cy, my));
+            double extent = double.MaxNative(maxX - minX, maxY - minY);
             // A box much wider than the triangle's angular size allows means its corners sit on both sides of a seam.
             // A box a few pixels wide cannot: across any seam the positions jump by most of the image. Most triangles
             // are that small, and the inner ones (no outline ramp) then need no local pixel scale at all.
