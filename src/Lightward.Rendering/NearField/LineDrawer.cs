@@ -195,7 +195,7 @@ public sealed class LineDrawer
         private readonly int _first = stroke.First, _last = stroke.Last;
         private readonly float _start = stroke.Start, _inverseSpan = stroke.InverseSpan, _minorStart = stroke.MinorStart, _minorChange = stroke.MinorChange;
         private readonly float _perpendicular = stroke.Perpendicular;
-        private readonly float _lowY = MathF.Min(stroke.Segment.Y0, stroke.Segment.Y1), _highY = MathF.Max(stroke.Segment.Y0, stroke.Segment.Y1);
+        private readonly float _lowY = float.MinNative(stroke.Segment.Y0, stroke.Segment.Y1), _highY = float.MaxNative(stroke.Segment.Y0, stroke.Segment.Y1);
         private readonly Vector3 _colour0 = stroke.Code0, _colourChange = stroke.Code1 - stroke.Code0;
         private readonly float _depth0 = stroke.Segment.Depth0, _depthChange = stroke.Segment.Depth1 - stroke.Segment.Depth0;
         private readonly int _width = pixels.Width;
@@ -213,7 +213,7 @@ public sealed class LineDrawer
         /// <summary>A line along x: rows [<paramref name="top"/>, <paramref name="bottom"/>), each over the columns where the line passes within reach of it.</summary>
         private void DrawRowsOfColumns<TTests>(int top, int bottom) where TTests : struct, ITypeFlag
         {
-            int firstRow = ToInt(Math.Max(top, MathF.Floor(_lowY) - Reach)), lastRow = ToInt(Math.Min(bottom - 1, MathF.Ceiling(_highY) + Reach));
+            int firstRow = ToInt(float.MaxNative(MathF.Floor(_lowY) - Reach, top)), lastRow = ToInt(float.MinNative(MathF.Ceiling(_highY) + Reach, bottom - 1));
             // Major change per unit of minor; the tent reaches 1 / perpendicular (at most √2) pixels across.
             float slope = _minorChange * _inverseSpan, inverseSlope = 1 / slope, reach = 1 / _perpendicular;
             // Added to a row's centre, the minor offsets (from the line's start) where the tent's reach ends on the side
@@ -226,10 +226,12 @@ public sealed class LineDrawer
                 if (slope != 0)
                 {
                     // Major coordinates where the line is the tent's reach from this row's centre, widened by a pixel for
-                    // rounding. The native max and min are plain instructions (this runs for every row a line crosses);
-                    // NaN, which finite segments never give, would fall to the segment's own ends.
-                    from = ToInt(float.MaxNative(MathF.Floor(_start + (centre + lowSide) * inverseSlope) - 1, _first));
-                    to = ToInt(float.MinNative(MathF.Ceiling(_start + (centre + highSide) * inverseSlope) + 1, _last));
+                    // rounding and kept within a pixel of the segment's own columns: a nearly level line's reach from a
+                    // neighbouring row can lie billions of pixels away, past what converts to an int. The native max and
+                    // min are plain instructions (this runs for every row a line crosses); NaN, which finite segments
+                    // never give, would fall to the segment's own ends.
+                    from = ToInt(float.MinNative(float.MaxNative(MathF.Floor(_start + (centre + lowSide) * inverseSlope) - 1, _first), _last + 1));
+                    to = ToInt(float.MaxNative(float.MinNative(MathF.Ceiling(_start + (centre + highSide) * inverseSlope) + 1, _last), _first - 1));
                 }
                 else if (!(MathF.Abs(centre - _minorStart) < reach)) continue;
                 for (int x = from; x <= to; x += VectorLanes.Count)

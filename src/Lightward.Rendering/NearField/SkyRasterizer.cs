@@ -311,7 +311,7 @@ public sealed class SkyRasterizer
     {
         Vec3 a = ToVec3(t.DirectionA), b = ToVec3(t.DirectionB), c = ToVec3(t.DirectionC);
         // The angle subtended by the longest chord.
-        double halfChord = Math.Min(1, Math.Sqrt(Math.Max((a - b).LengthSquared, Math.Max((b - c).LengthSquared, (c - a).LengthSquared))) / 2);
+        double halfChord = Math.Min(1, Math.Sqrt(double.MaxNative((a - b).LengthSquared, double.MaxNative((b - c).LengthSquared, (c - a).LengthSquared))) / 2);
         Vec3 centre = (a + b + c).NormalizedOr(a);
         // Every point of the triangle lies within its diameter of the centroid direction.
         if (View.Misses(centre, halfChord)) return;
