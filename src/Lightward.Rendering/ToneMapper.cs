@@ -265,7 +265,22 @@ public static class ToneMapper
             (int wordRow, int wordBlock) = Math.DivRem(word, maskRowStride);
             ulong mapped = *(ulong*)(marked + word), overlaid = TOverlay.IsSet ? *(ulong*)(laid + word) : 0, written = mapped | overlaid | *(ulong*)(dark + word);
             // Bit 2k stands for the line of groups 2k and 2k + 1; a block holds 16 groups, so no line spans two blocks.
-            for (ulong lines = (written | written >> 1) & FirstOfEachPair; lines != 0; lines &= lines - 1)
+            ulong mappedLines = (mapped | mapped >> 1) & FirstOfEachPair;
+            // Lines without a group to map first: black under the overlay's codes, and since an unmarked overlay group is
+            // empty, that is the overlay's two groups as they are (made opaque) whichever of them is marked. Taken
+            // apart from the mapped lines they need no test per group (the turning star frame, which blacks out the
+            // last frame's stars, 0.97–0.99× in one process).
+            for (ulong lines = (written | written >> 1) & FirstOfEachPair & ~mappedLines; lines != 0; lines &= lines - 1)
+            {
+                int bit = BitOperations.TrailingZeroCount(lines);
+                (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
+                int first = group * HdrFrame.GroupWidth, pixel = row * planes.Stride + first;
+                int* line = (int*)(rgba + (long)row * rgbaStride + first);
+                var black = Vector256.Create(unchecked((int)OpaqueBlack));
+                Avx.StoreAlignedNonTemporal(line, TOverlay.IsSet ? LayOverGroup(black, planes.Overlay + pixel, underIsBlack: true) : black);
+                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, TOverlay.IsSet ? LayOverGroup(black, planes.Overlay + pixel + HdrFrame.GroupWidth, underIsBlack: true) : black);
+            }
+            for (ulong lines = mappedLines; lines != 0; lines &= lines - 1)
             {
                 int bit = BitOperations.TrailingZeroCount(lines);
                 (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
