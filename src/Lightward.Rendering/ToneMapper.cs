@@ -273,9 +273,7 @@ public static class ToneMapper
             for (ulong lines = (written | written >> 1) & FirstOfEachPair & ~mappedLines; lines != 0; lines &= lines - 1)
             {
                 int bit = BitOperations.TrailingZeroCount(lines);
-                (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
-                int first = group * HdrFrame.GroupWidth, pixel = row * planes.Stride + first;
-                int* line = (int*)(rgba + (long)row * rgbaStride + first);
+                int* line = LineOf(bit, wordRow, wordBlock, maskRowStride, rgba, rgbaStride, planes.Stride, out int pixel);
                 var black = Vector256.Create(unchecked((int)OpaqueBlack));
                 Avx.StoreAlignedNonTemporal(line, TOverlay.IsSet ? LayOverGroup(black, planes.Overlay + pixel, underIsBlack: true) : black);
                 Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, TOverlay.IsSet ? LayOverGroup(black, planes.Overlay + pixel + HdrFrame.GroupWidth, underIsBlack: true) : black);
@@ -283,15 +281,23 @@ public static class ToneMapper
             for (ulong lines = mappedLines; lines != 0; lines &= lines - 1)
             {
                 int bit = BitOperations.TrailingZeroCount(lines);
-                (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
-                int first = group * HdrFrame.GroupWidth, pixel = row * planes.Stride + first;
-                int* line = (int*)(rgba + (long)row * rgbaStride + first);
+                int* line = LineOf(bit, wordRow, wordBlock, maskRowStride, rgba, rgbaStride, planes.Stride, out int pixel);
                 Avx.StoreAlignedNonTemporal(line, GroupToWrite<TOverlay>(planes, pixel, mapped >> bit, overlaid >> bit, scale, table));
                 Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, GroupToWrite<TOverlay>(planes, pixel + HdrFrame.GroupWidth, mapped >> bit >> 1, overlaid >> bit >> 1, scale, table));
             }
         }
         // Non-temporal stores are weakly ordered: they must reach memory before another thread reads the image.
         Sse.StoreFence();
+    }
+
+    /// <summary>The output line of bit <paramref name="bit"/> of a word of masks (see <see cref="Locate"/>), and its first pixel's index in planes <paramref name="planeStride"/> floats a row.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe int* LineOf(int bit, int wordRow, int wordBlock, int maskRowStride, uint* rgba, int rgbaStride, int planeStride, out int pixel)
+    {
+        (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
+        int first = group * HdrFrame.GroupWidth;
+        pixel = row * planeStride + first;
+        return (int*)(rgba + (long)row * rgbaStride + first);
     }
 
     /// <summary>

@@ -19,9 +19,9 @@ internal readonly struct LineShader
     /// <summary>
     /// The limited brightening 2^(S·tanh(s/S)) tabulated over s ∈ [−<see cref="TabulatedStops"/>,
     /// +<see cref="TabulatedStops"/>], <see cref="EntriesPerStop"/> entries a stop, each with its step to the next. A
-    /// grid samples it for every point it traces, and the logarithm, power and hyperbolic tangent cost three times
-    /// the rest of a point's sight; read linearly between entries it is within 2·10⁻⁵ of the curve (relative), and
-    /// past the ends the curve is within 10⁻⁶ of its limits.
+    /// grid samples it for every point it traces, and worked out there its power and hyperbolic tangent (with the
+    /// logarithm of D) cost about as much as the rest of a point's sight. Read linearly between entries it is within
+    /// 2·10⁻⁵ of the curve (relative), and past the ends the curve is within 10⁻⁶ of its limits.
     /// </summary>
     private static readonly float[] Brightening = TabulateBrightening();
     private const int TabulatedStops = 24, EntriesPerStop = 64, LastEntry = 2 * TabulatedStops * EntriesPerStop;
