@@ -25,6 +25,8 @@ internal readonly struct LineShader
     /// </summary>
     private static readonly float[] Brightening = TabulateBrightening();
     private const int TabulatedStops = 24, EntriesPerStop = 64, LastEntry = 2 * TabulatedStops * EntriesPerStop;
+    /// <summary>Stops (factors of 2) in a unit of natural logarithm, 1 / ln 2: a constant, not a logarithm per traced point.</summary>
+    private const float StopsPerNeper = 1.44269504f;
 
     private readonly float _logTemperature;
     private readonly float _restLogLuminance;
@@ -43,7 +45,7 @@ internal readonly struct LineShader
         // Below the table's coldest entry a blackbody is black; the line keeps that entry's deep red at the dimmest level.
         float logTemperature = MathF.Max(_logTemperature + (float)Math.Log(doppler), (float)BlackbodyTable.LogTemperatureMin);
         float logLuminance = BlackbodyTable.Shared.Sample(logTemperature, out float r, out float g, out float b);
-        float brightness = _level * LimitedBrightening((logLuminance - _restLogLuminance) * (1 / MathF.Log(2)));
+        float brightness = _level * LimitedBrightening((logLuminance - _restLogLuminance) * StopsPerNeper);
         return float.IsFinite(brightness) ? brightness * new Vector3(r, g, b) : Vector3.Zero;
     }
 
