@@ -196,7 +196,7 @@ public sealed class FlyCommand : Command<FlySettings>
             Console.Error.WriteLine($"lightward: flight log written to {logPath} (replay with `lightward replay {logPath}`)");
         }
         Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
-            $"flew {outcome.Frames} frames ({(outcome.Windowed ? "window" : "headless")}): ship clock {ship.ShipTime:0.###} s, home clock {ship.HomeTime:0.###} s, rapidity {ship.Velocity.Rapidity:G6}, beta {ship.Velocity.Beta:G6}, task: {outcome.TaskStatus}"));
+            $"flew {outcome.Frames} frame{(outcome.Frames == 1 ? "" : "s")} ({(outcome.Windowed ? "window" : "headless")}): ship clock {ship.ShipTime:0.###} s, home clock {ship.HomeTime:0.###} s, rapidity {ship.Velocity.Rapidity:G6}, beta {ship.Velocity.Beta:G6}, task: {outcome.TaskStatus}"));
         return ErrorReporting.Success;
     }
 }
