@@ -282,6 +282,18 @@ public static class ToneMapper
             {
                 int bit = BitOperations.TrailingZeroCount(lines);
                 int* line = LineOf(bit, wordRow, wordBlock, maskRowStride, rgba, rgbaStride, planes.Stride, out int pixel);
+                int pair = (int)(mapped >> bit) & 3;
+                if (pair != 3 && (!TOverlay.IsSet || ((overlaid >> bit) & 3) == 0))
+                {
+                    // One group of the two to map and no overlay on either (as with most stars): which one is as likely
+                    // as not, so it is picked by arithmetic, not by a branch the processor would miss every other line;
+                    // the other is black.
+                    int second = pair >> 1, mappedOffset = second * HdrFrame.GroupWidth;
+                    Vector256<int> codes = MapGroup(planes.Red + pixel + mappedOffset, planes.Green + pixel + mappedOffset, planes.Blue + pixel + mappedOffset, scale, table);
+                    Avx.StoreAlignedNonTemporal(line + (HdrFrame.GroupWidth - mappedOffset), Vector256.Create(unchecked((int)OpaqueBlack)));
+                    Avx.StoreAlignedNonTemporal(line + mappedOffset, codes);
+                    continue;
+                }
                 Avx.StoreAlignedNonTemporal(line, GroupToWrite<TOverlay>(planes, pixel, mapped >> bit, overlaid >> bit, scale, table));
                 Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, GroupToWrite<TOverlay>(planes, pixel + HdrFrame.GroupWidth, mapped >> bit >> 1, overlaid >> bit >> 1, scale, table));
             }
