@@ -40,7 +40,7 @@ public class SrgbTransferTests
     [Fact]
     public void The_tone_mappers_table_stays_within_one_code_of_the_exact_curve_and_encoding()
     {
-        // Exact: Reinhard et al. 2002 eq. 4, then IEC 61966-2-1 §5.2, in double precision; the table (1024 steps per
+        // Exact: Reinhard et al. 2002 eq. 4, then IEC 61966-2-1 §5.2, in double precision; the table (256 steps per
         // octave of exposed value) may differ by at most one 8-bit step anywhere, from far below visibility to past white.
         for (int i = 0; i <= 200_000; i++)
         {
