@@ -218,7 +218,7 @@ public static class ToneMapper
             bool vectorized = Avx2.IsSupported && HdrFrame.GroupWidth == Vector256<float>.Count;
             for (int word = 0; word < paddedBlocks; word += 4)
             {
-                (int wordRow, int wordBlock) = Math.DivRem(word, maskRowStride);
+                (int wordRow, int wordBlock) = WordStart(word, maskRowStride);
                 for (ulong bits = *(ulong*)(dark + word); bits != 0; bits &= bits - 1)
                 {
                     (int row, int group) = Locate(wordRow, wordBlock, BitOperations.TrailingZeroCount(bits), maskRowStride);
@@ -264,7 +264,7 @@ public static class ToneMapper
         const ulong FirstOfEachPair = 0x5555_5555_5555_5555;
         for (int word = 0; word < paddedBlocks; word += 4)
         {
-            (int wordRow, int wordBlock) = Math.DivRem(word, maskRowStride);
+            (int wordRow, int wordBlock) = WordStart(word, maskRowStride);
             ulong mapped = *(ulong*)(marked + word), overlaid = TOverlay.IsSet ? *(ulong*)(laid + word) : 0, written = mapped | overlaid | *(ulong*)(dark + word);
             // Bit 2k stands for the line of groups 2k and 2k + 1; a block holds 16 groups, so no line spans two blocks.
             ulong mappedLines = (mapped | mapped >> 1) & FirstOfEachPair;
@@ -341,10 +341,18 @@ public static class ToneMapper
             Sse.Prefetch0(firstPixel + BitOperations.TrailingZeroCount(groups) * HdrFrame.GroupWidth);
     }
 
+    /// <summary>Row and first block of the word of masks at <paramref name="word"/> (a star tile's rows are a block each: no division).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static (int Row, int Block) WordStart(int word, int maskRowStride) => maskRowStride == 1 ? (word, 0) : Math.DivRem(word, maskRowStride);
+
     /// <summary>Row and group of bit <paramref name="bit"/> of a word of masks whose first block is block <paramref name="wordBlock"/> of row <paramref name="wordRow"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static (int Row, int Group) Locate(int wordRow, int wordBlock, int bit, int maskRowStride) =>
-        maskRowStride == 1 ? (wordRow + bit / MarkBlock, bit % MarkBlock) : (wordRow, (wordBlock + bit / MarkBlock) * MarkBlock + bit % MarkBlock);
+    private static (int Row, int Group) Locate(int wordRow, int wordBlock, int bit, int maskRowStride)
+    {
+        // A bit number is never negative: unsigned, the division and remainder are a shift and a mask.
+        int block = (int)((uint)bit / MarkBlock), group = (int)((uint)bit % MarkBlock);
+        return maskRowStride == 1 ? (wordRow + block, group) : (wordRow, (wordBlock + block) * MarkBlock + group);
+    }
 
     /// <summary>Groups whose marks are read at once: a 128-bit vector of mark bytes, noted as one lit entry.</summary>
     private const int MarkBlock = RgbaImage.GroupsPerLitEntry;
