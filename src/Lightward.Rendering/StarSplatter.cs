@@ -349,6 +349,12 @@ public sealed class StarSplatter
     {
         _firstTile[i] = firstTile;
         _tileSpan[i] = (byte)span;
+        // Nearly every star lies in one tile: counted without the loops, whose exits would be guessed per star.
+        if (span == 0)
+        {
+            _chunkTileCursor[cursors + firstTile]++;
+            return;
+        }
         for (int band = 0; band <= span >> SpanShift; band++)
             for (int column = 0; column <= (span & ColumnSpanMask); column++)
                 _chunkTileCursor[cursors + firstTile + band * _tilesPerBand + column]++;
@@ -386,6 +392,11 @@ public sealed class StarSplatter
             float scale = _radianceScale[i];
             SplatRecord star = SplatRecord.At(_x[i], _y[i], red[i] * scale, green[i] * scale, blue[i] * scale, _footprint[i]);
             int firstTile = _firstTile[i], span = _tileSpan[i];
+            if (span == 0)
+            {
+                _tileStars[_chunkTileCursor[cursors + firstTile]++] = star;
+                continue;
+            }
             for (int band = 0; band <= span >> SpanShift; band++)
                 for (int column = 0; column <= (span & ColumnSpanMask); column++)
                     _tileStars[_chunkTileCursor[cursors + firstTile + band * _tilesPerBand + column]++] = star;
