@@ -38,15 +38,17 @@ public class FlyWindowTests
         Assert.Equal(1, root.GetProperty("throttle").GetDouble());
         Assert.True(root.GetProperty("rapidity").GetDouble() > 0);
         // The demo starts with the nose on home +X and the right wing on home +Y: a yaw to the right swings the
-        // nose toward +Y, and the engine pushed the ship along where the nose pointed. How far the nose swings
-        // depends on when the window saw the key go up (a loaded machine sees it later), so the motion is checked
-        // against the final nose, not against a fixed direction: the turn ends early in a long burn, so the velocity
-        // lags the nose by only a degree or so (5° allowed: our own margin, no source).
+        // nose toward +Y within the home X–Y plane, and the engine pushed the ship along where the nose pointed.
+        // When the window saw the keys depends on how loaded the machine is, so the motion is not checked against a
+        // fixed direction: at these speeds (β ~ 10⁻⁵) the velocity is the sum of thrusts along noses that swept from
+        // +X to the final nose, so it lies in that plane and between the two (0.5° allowed for the nose settling
+        // after the key went up: our own margin, no source).
         double[] forward = root.GetProperty("forward").EnumerateArray().Select(v => v.GetDouble()).ToArray();
         double[] motion = root.GetProperty("velocity_direction").EnumerateArray().Select(v => v.GetDouble()).ToArray();
         Assert.True(forward[1] > 0.01, $"nose did not swing right: {string.Join(", ", forward)}");
-        double alongNose = forward.Zip(motion, (f, m) => f * m).Sum();
-        Assert.True(alongNose > Math.Cos(5 * Math.PI / 180), $"ship did not move along its nose: nose {string.Join(", ", forward)}, motion {string.Join(", ", motion)}");
+        double noseAngle = Math.Atan2(forward[1], forward[0]), motionAngle = Math.Atan2(motion[1], motion[0]), margin = 0.5 * Math.PI / 180;
+        Assert.True(Math.Abs(motion[2]) < 1e-6 && motionAngle > -margin && motionAngle < noseAngle + margin,
+            $"ship did not move along where its nose pointed: nose {string.Join(", ", forward)}, motion {string.Join(", ", motion)}");
 
         RgbaImage shot = PngWriter.Read(Path.Combine(folder, "shot.png"));
         Assert.Equal((640, 360), (shot.Width, shot.Height));
