@@ -6,10 +6,10 @@ namespace Lightward.Benchmarks;
 /// <summary>
 /// How fast the host is at the moment, for reading a run's figures. A shared VM drifts, and not all work drifts
 /// alike: arithmetic keeps its speed while memory that other tenants also use slows down, and a star frame's tone
-/// map is mostly writes to scattered lines of the output image. Two probes, each the median of several passes:
+/// map is mostly writes to scattered lines of the output image. Three readings, each the median of several passes:
 /// a chain of dependent arithmetic, and 35,000 writes of 32-byte pixel groups at scattered places of a 1080p RGBA
 /// image (about what the 1080p star frame writes), in the frame's tile order, after streaming through 32 MB of
-/// other memory as a frame's other stages do. The chain is also run on every core at once (the slowest core's time):
+/// other memory as a frame's other stages do; and the same chain run on every core at once (the slowest core's time):
 /// a host that lends our second core to other tenants slows the two-core frames while one core alone keeps its speed
 /// (seen here: frames 1.5–2× slower, the single chain unchanged), and only this reading shows it.
 /// </summary>
