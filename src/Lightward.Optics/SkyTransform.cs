@@ -87,11 +87,12 @@ public sealed unsafe class SkyTransform
     /// Cuts the visible cells into pieces of at most <see cref="ChunkLength"/> stars (a split that depends only on the
     /// view, never on the thread count) and returns the number of stars kept.
     /// <para>
-    /// The visibility test is conservative and exact in its bound: aberration maps the celestial sphere conformally,
-    /// magnifying lengths near a home direction by 1/D (solid angles by 1/D², from the invariance of I_ν/ν³; see
-    /// <see cref="Beaming"/>). A cell's cap of radius r around axis c therefore appears inside a cap of radius
-    /// r / D_min around the apparent axis c′, D_min being the Doppler factor at the cap's point farthest from the
-    /// motion (the geodesic to any star stays in the cap, and its image is at most 1/D_min times as long).
+    /// The visibility test is conservative: aberration maps the celestial sphere conformally, magnifying lengths near
+    /// a home direction by 1/D (solid angles by 1/D², from the invariance of I_ν/ν³; see <see cref="Beaming"/>). A
+    /// cell's cap of radius r around axis c therefore appears inside a cap of radius r / D_min around the apparent
+    /// axis c′, D_min being the Doppler factor at the cap's point farthest from the motion (the geodesic to any star
+    /// stays in the cap, and its image is at most 1/D_min times as long). The angles are compared through bounds
+    /// on their cosines and sines that never drop a cell the exact test keeps, without a trigonometric call per cell.
     /// </para>
     /// </summary>
     private int PlanPieces(StarCatalog catalog, LorentzFrame shipFrame, ViewCone view, ParallelOptions parallel)
@@ -106,7 +107,7 @@ public sealed unsafe class SkyTransform
         Vec3 motion = shipFrame.Velocity.Direction.NormalizedOr(Vec3.UnitZ);
         TurnEdgesComoving(view.EdgePlanes.Span, shipFrame.Orientation);
         cellTest = new CellTest(catalog, new MovingObserver(motion, rapidity), motion, shipFrame.Orientation.Rotate(view.Axis), view.HalfAngle,
-            Math.Exp(-rapidity), Math.Sinh(rapidity), CellRadiusTrig(catalog), view.EdgePlanes.Length);
+            Math.Cos(view.HalfAngle), Math.Sin(view.HalfAngle), Math.Exp(-rapidity), Math.Sinh(rapidity), CellRadiusTrig(catalog), view.EdgePlanes.Length);
         try
         {
             ParallelItems.For(0, CellBlocks, parallel, testCells);
@@ -138,7 +139,7 @@ public sealed unsafe class SkyTransform
 
     /// <summary>What a frame's cell test needs: the view in the comoving axes cells are tested in, and the motion.</summary>
     private readonly record struct CellTest(StarCatalog Catalog, MovingObserver Observer, Vec3 Motion, Vec3 ViewAxis, double HalfAngle,
-        double ExpMinus, double Sinh, (double[] Cos, double[] Sin) RadiusTrig, int EdgeCount);
+        double CosHalfAngle, double SinHalfAngle, double ExpMinus, double Sinh, (double[] Cos, double[] Sin) RadiusTrig, int EdgeCount);
 
     /// <summary>Notes, for each non-empty cell of a block, whether its stars can appear in the view.</summary>
     private void TestCells(int block)
@@ -157,9 +158,13 @@ public sealed unsafe class SkyTransform
             double cosCentre = Math.Clamp(Vec3.Dot(axis, test.Motion), -1, 1), sinCentre = Math.Sqrt(1 - cosCentre * cosCentre);
             double cosFarthest = cosCentre <= -cosRadius ? -1 : cosCentre * cosRadius - sinCentre * sinRadius;
             double dopplerMin = test.ExpMinus + test.Sinh * (1 + cosFarthest);
-            double imageRadius = catalog.CellRadius[cell] / dopplerMin, reach = test.HalfAngle + imageRadius;
-            Vec3 apparentAxis = test.Observer.Apparent(axis);
-            if (reach < Math.PI && Vec3.Dot(apparentAxis, test.ViewAxis) < Math.Cos(reach)) continue;
+            double imageRadius = catalog.CellRadius[cell] / dopplerMin;
+            Vec3 apparentAxis = test.Observer.ApparentOfUnit(axis, out _);
+            // Outside the view cone: farther from its axis than the half angle plus the image radius ir, i.e. the dot
+            // below cos(h + ir) = cos h cos ir − sin h sin ir, bounded from below with cos ir ≥ 1 − ir²/2 and sin ir ≤ ir.
+            double cosReachAtLeast = (test.CosHalfAngle >= 0 ? test.CosHalfAngle * (1 - imageRadius * imageRadius / 2) : test.CosHalfAngle)
+                - test.SinHalfAngle * imageRadius;
+            if (test.HalfAngle + imageRadius < Math.PI && Vec3.Dot(apparentAxis, test.ViewAxis) < cosReachAtLeast) continue;
             cellShown[cell] = !BeyondAnEdge(apparentAxis, imageRadius, edges);
         }
     }
@@ -176,12 +181,13 @@ public sealed unsafe class SkyTransform
 
     /// <summary>
     /// True when a cap of <paramref name="radius"/> around <paramref name="axis"/> lies wholly on the outer side of an
-    /// edge plane: its axis is farther than the radius below the plane, dot(axis, n) &lt; −sin(radius).
+    /// edge plane: its axis is farther than the radius below the plane, dot(axis, n) &lt; −sin(radius), tested as
+    /// dot(axis, n) &lt; −radius (since radius ≥ sin(radius), a cap this keeps out the exact test keeps out too).
     /// </summary>
     private static bool BeyondAnEdge(Vec3 axis, double radius, ReadOnlySpan<Vec3> edges)
     {
-        if (edges.IsEmpty || radius + EdgeSlack >= Math.PI / 2) return false;
-        double below = -Math.Sin(radius + EdgeSlack);
+        if (edges.IsEmpty) return false;
+        double below = -(radius + EdgeSlack);
         foreach (Vec3 inward in edges)
             if (Vec3.Dot(axis, inward) < below) return true;
         return false;

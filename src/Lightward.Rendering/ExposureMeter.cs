@@ -101,7 +101,11 @@ public sealed class LevelHistogram
     public void Add(LevelHistogram other)
     {
         if (other.Count == 0) return;
-        for (int bin = 0; bin < _bins.Length; bin++) _bins[bin] += other._bins[bin];
+        // A vector of bins at a time: a frame merges one histogram per star chunk on one thread, between parallel passes.
+        Span<int> bins = _bins;
+        ReadOnlySpan<int> added = other._bins;
+        for (int bin = 0; bin < bins.Length; bin += Vector<int>.Count)
+            (new Vector<int>(bins[bin..]) + new Vector<int>(added[bin..])).CopyTo(bins[bin..]);
         Count += other.Count;
     }
 

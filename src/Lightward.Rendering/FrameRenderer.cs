@@ -207,7 +207,7 @@ public sealed class FrameRenderer
         RgbaImage image = frame.Image;
         fixed (byte* pixels = image.RendererPixels)
         fixed (ushort* lit = image.LitGroups)
-            ToneMapper.MapAndClearRows(rows.Buffer, frame.ExposureScale, (uint*)pixels + (long)rows.Origin * hdr.Width, lit + rows.Origin * image.LitEntriesPerRow,
+            ToneMapper.MapAndClearRows(rows.Buffer, frame.ExposureScale, (uint*)pixels + (long)rows.Origin * hdr.Width, lit + image.LitEntry(rows.Origin, 0),
                 _litKnown, firstRow - rows.Origin, endRow - rows.Origin, Layers.Count > 0 ? buffers.Overlay : null, 0);
         return buffers;
     }

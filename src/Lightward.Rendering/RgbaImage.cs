@@ -34,7 +34,7 @@ public sealed class RgbaImage
         _memory = GC.AllocateArray<byte>(checked(_length + LineBytes - 1), pinned: true);
         fixed (byte* memory = _memory) _offset = (int)(-(nint)memory & (LineBytes - 1));
         LitEntriesPerRow = (width + GroupsPerLitEntry * HdrFrame.GroupWidth - 1) / (GroupsPerLitEntry * HdrFrame.GroupWidth);
-        LitGroups = new ushort[LitEntriesPerRow * height];
+        LitGroups = new ushort[LitEntriesPerRow * ((height + LitBandRows - 1) / LitBandRows * LitBandRows)];
     }
 
     public int Width { get; }
@@ -58,11 +58,19 @@ public sealed class RgbaImage
 
     /// <summary>
     /// Per row, one entry per <see cref="GroupsPerLitEntry"/> groups: bit g set unless group g of the entry is known
-    /// to be all black. Meaningful only while <see cref="LitGroupsKnown"/>.
+    /// to be all black. Meaningful only while <see cref="LitGroupsKnown"/>. Laid out band by band of
+    /// <see cref="LitBandRows"/> rows, and within a band entry column by entry column, so that a star tile's rows
+    /// are one run of entries (see <see cref="LitEntry"/>).
     /// </summary>
     internal ushort[] LitGroups { get; }
 
     internal int LitEntriesPerRow { get; }
+
+    /// <summary>Rows of a band of the note of lit groups: a star tile's height.</summary>
+    internal const int LitBandRows = StarSplatter.BandHeight;
+
+    /// <summary>Where entry <paramref name="entry"/> of the band's first row <paramref name="bandFirstRow"/> (a multiple of <see cref="LitBandRows"/>) is; row r of the band follows at + r.</summary>
+    internal int LitEntry(int bandFirstRow, int entry) => bandFirstRow * LitEntriesPerRow + entry * LitBandRows;
 
     /// <summary>True while the pixels are exactly as the renderer's last tone map left them, so that <see cref="LitGroups"/> holds.</summary>
     internal bool LitGroupsKnown { get; set; }

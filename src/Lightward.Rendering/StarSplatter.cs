@@ -62,6 +62,8 @@ public sealed class StarSplatter
     /// <summary>Each tile's stars, tile after tile, packed so that a tile reads its stars in one sequential sweep.</summary>
     private SplatRecord[] _tileStars = [];
     private int _bandCount, _tilesPerBand, _tileCount;
+    /// <summary>Entries per chunk in <see cref="_chunkTileCursor"/>: the tile count rounded up to whole vectors, so tiles are placed a vector at a time.</summary>
+    private int _tileStride;
 
     private readonly PointSpreadKernels _kernels = PointSpreadKernels.Shared;
 
@@ -282,7 +284,7 @@ public sealed class StarSplatter
     /// </summary>
     private void AssignFootprints(int chunk)
     {
-        int start = chunk * _chunkSize, end = Math.Min(_stars.Count, start + _chunkSize), cursors = chunk * _tileCount;
+        int start = chunk * _chunkSize, end = Math.Min(_stars.Count, start + _chunkSize), cursors = chunk * _tileStride;
         Vector<float> exposureScale = new(_exposureScale), bilinearLimit = new(BilinearLimit), half = new(0.5f);
         Vector<int> lastRow = new(_height - 1), lastColumn = new(_width - 1), tilesPerBand = new(_tilesPerBand);
         int i = start;
@@ -362,30 +364,48 @@ public sealed class StarSplatter
 
     /// <summary>
     /// Turns the per-chunk tile counts into write positions: each tile's list holds chunk 0's stars, then chunk 1's…,
-    /// so every tile lists its stars in catalogue order whatever the thread count.
+    /// so every tile lists its stars in catalogue order whatever the thread count. A vector of tiles at a time, since
+    /// this runs on one thread between the parallel passes (one tile at a time it took 2 % of the 1080p star frame).
     /// </summary>
     private void PlaceTiles(int chunks)
     {
-        if (_tileStart.Length < _tileCount + 1) _tileStart = new int[_tileCount + 1];
+        if (_tileStart.Length < _tileStride + 1) _tileStart = new int[_tileStride + 1];
+        Span<int> counts = _chunkTileCursor.AsSpan(0, chunks * _tileStride), starts = _tileStart;
+        // Each tile's star count, summed over the chunks (the padding tiles count none)…
+        for (int tile = 0; tile < _tileStride; tile += Vector<int>.Count)
+        {
+            Vector<int> count = Vector<int>.Zero;
+            for (int chunk = 0; chunk < chunks; chunk++) count += new Vector<int>(counts[(chunk * _tileStride + tile)..]);
+            count.CopyTo(starts[tile..]);
+        }
+        // …where each tile's list starts…
         int total = 0;
         for (int tile = 0; tile < _tileCount; tile++)
         {
-            _tileStart[tile] = total;
+            int count = starts[tile];
+            starts[tile] = total;
+            total += count;
+        }
+        starts[_tileCount] = total;
+        // …and where each chunk's stars go in it.
+        for (int tile = 0; tile < _tileStride; tile += Vector<int>.Count)
+        {
+            Vector<int> cursor = new(starts[tile..]);
             for (int chunk = 0; chunk < chunks; chunk++)
             {
-                int count = _chunkTileCursor[chunk * _tileCount + tile];
-                _chunkTileCursor[chunk * _tileCount + tile] = total;
-                total += count;
+                Span<int> at = counts[(chunk * _tileStride + tile)..];
+                Vector<int> count = new(at);
+                cursor.CopyTo(at);
+                cursor += count;
             }
         }
-        _tileStart[_tileCount] = total;
         if (_tileStars.Length < total) _tileStars = new SplatRecord[Math.Max(total, _tileStars.Length * 2)];
     }
 
     private void FillTiles(int chunk)
     {
         float[] red = _stars.R, green = _stars.G, blue = _stars.B;
-        int start = chunk * _chunkSize, end = Math.Min(_stars.Count, start + _chunkSize), cursors = chunk * _tileCount;
+        int start = chunk * _chunkSize, end = Math.Min(_stars.Count, start + _chunkSize), cursors = chunk * _tileStride;
         for (int i = start; i < end; i++)
         {
             if (_footprint[i] == Hidden) continue;
@@ -412,9 +432,10 @@ public sealed class StarSplatter
         _bandCount = (height + BandHeight - 1) / BandHeight;
         _tilesPerBand = (width + TileWidth - 1) / TileWidth;
         _tileCount = _bandCount * _tilesPerBand;
+        _tileStride = (_tileCount + Vector<int>.Count - 1) & -Vector<int>.Count;
         int chunks = (_stars.Count + _chunkSize - 1) / _chunkSize;
-        if (_chunkTileCursor.Length < chunks * _tileCount) _chunkTileCursor = new int[chunks * _tileCount];
-        Array.Clear(_chunkTileCursor, 0, chunks * _tileCount);
+        if (_chunkTileCursor.Length < chunks * _tileStride) _chunkTileCursor = new int[chunks * _tileStride];
+        Array.Clear(_chunkTileCursor, 0, chunks * _tileStride);
         ParallelItems.For(0, chunks, parallel, _assignChunk);
         PlaceTiles(chunks);
         ParallelItems.For(0, chunks, parallel, _fillChunk);
@@ -471,7 +492,7 @@ public sealed class StarSplatter
                 SplatTile(target, band, tileColumn, clip);
                 ToneMapper.MapMarkedRows(new ToneMapper.MarkedPlanes(scratch, scratch + TilePixels, scratch + 2 * TilePixels, TileWidth, marks, GroupsPerTileRow),
                     rgba + (long)clip.FirstRow * _width + clip.FirstColumn, _width, clip.EndColumn - clip.FirstColumn, clip.EndRow - clip.FirstRow, _exposureScale,
-                    lit + clip.FirstRow * _image.LitEntriesPerRow + tileColumn * LitEntriesPerTile, _image.LitEntriesPerRow, _litKnown);
+                    lit + _image.LitEntry(clip.FirstRow, tileColumn * LitEntriesPerTile), _litKnown);
             }
         }
     }

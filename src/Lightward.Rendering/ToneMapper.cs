@@ -57,8 +57,8 @@ public static class ToneMapper
     /// and zeroes those HDR rows while their cache lines are at hand, which saves the next frame a clearing pass.
     /// Unless the frame is <see cref="HdrFrame.WhollyTouched"/>, only the touched pixel groups are read (the rest are
     /// zero, so they map to black and are written as black) and their marks are cleared; <paramref name="lit"/> (laid
-    /// out like the image's note of lit groups, row for row with <paramref name="rgba"/>; null for none) is used and
-    /// updated as in <see cref="MapMarkedRows"/>. The marked groups of <paramref name="overlay"/> (unless null; of the
+    /// out like the image's note of lit groups, from the band holding HDR row 0 of <paramref name="rgba"/>, with
+    /// <paramref name="firstRow"/> a band's first; null for none) is used and updated as in <see cref="MapMarkedRows"/>. The marked groups of <paramref name="overlay"/> (unless null; of the
     /// frame's width, its row <paramref name="overlayFirstRow"/> holding HDR row <paramref name="firstRow"/>) are laid
     /// over the mapped pixels and emptied.
     /// </summary>
@@ -67,6 +67,8 @@ public static class ToneMapper
     {
         if (overlay is not null && (overlay.Width != hdr.Width || overlayFirstRow + endRow - firstRow > overlay.Height))
             throw new ArgumentException("overlay and HDR rows differ in size", nameof(overlay));
+        if (lit != null && firstRow % RgbaImage.LitBandRows != 0)
+            throw new ArgumentException("rows noted in the image's note of lit groups must start a band", nameof(firstRow));
         fixed (float* red = hdr.Red, green = hdr.Green, blue = hdr.Blue)
         fixed (byte* touched = hdr.Touched)
         fixed (uint* overlayPixels = overlay?.Pixels)
@@ -93,7 +95,7 @@ public static class ToneMapper
                 int start = row * hdr.Width;
                 var planes = new MarkedPlanes(red + start, green + start, blue + start, hdr.Width, touched + row * hdr.GroupsPerRow, hdr.GroupsPerRow,
                     overlay is null ? null : laidPixels + start, overlay is null ? null : laidMarks + row * hdr.GroupsPerRow);
-                MapMarkedRows(planes, rgba + start, hdr.Width, hdr.Width, Math.Min(RowsAtOnce, endRow - row), exposureScale, lit == null ? null : lit + row * litPerRow, litPerRow, litKnown);
+                MapMarkedRows(planes, rgba + start, hdr.Width, hdr.Width, Math.Min(RowsAtOnce, endRow - row), exposureScale, lit == null ? null : lit + row * litPerRow, litKnown);
             }
         }
     }
@@ -131,7 +133,7 @@ public static class ToneMapper
     private const uint OpaqueBlack = 0xFF000000u;
 
     /// <summary>Rows <see cref="MapAndClearRows"/> hands to <see cref="MapMarkedRows"/> at once: a star band's height.</summary>
-    private const int RowsAtOnce = 16;
+    private const int RowsAtOnce = RgbaImage.LitBandRows;
 
     /// <summary>
     /// Rows of HDR planes (<see cref="Stride"/> floats apart) with a mark per <see cref="HdrFrame.GroupWidth"/>-pixel
@@ -152,7 +154,8 @@ public static class ToneMapper
     /// <paramref name="rgbaStride"/> pixels apart): each marked group is mapped, its HDR values zeroed and its mark
     /// cleared, and every other group is black (what an untouched, all-zero group maps to). When
     /// <paramref name="litKnown"/>, the groups not noted in <paramref name="lit"/> (per row, one entry per
-    /// <see cref="RgbaImage.GroupsPerLitEntry"/> groups; rows <paramref name="litStride"/> entries apart) are black
+    /// <see cref="RgbaImage.GroupsPerLitEntry"/> groups; laid out as in <see cref="RgbaImage.LitGroups"/>, row r's
+    /// block b at r + b × <see cref="RgbaImage.LitBandRows"/>, so at most that many rows) are black
     /// already and only the noted ones are written black; otherwise every group is written. Either way
     /// <paramref name="lit"/> (unless null) is left noting the groups written other than black. Each marked group of
     /// the planes' overlay is laid over its group (mapped, or black) and emptied.
@@ -164,14 +167,14 @@ public static class ToneMapper
     /// </para>
     /// </summary>
     internal static unsafe void MapMarkedRows(in MarkedPlanes planes, uint* rgba, int rgbaStride, int width, int rows, float exposureScale,
-        ushort* lit, int litStride, bool litKnown)
+        ushort* lit, bool litKnown)
     {
-        if (planes.Overlay == null) MapMarkedRows<WithoutOverlay>(planes, rgba, rgbaStride, width, rows, exposureScale, lit, litStride, litKnown);
-        else MapMarkedRows<WithOverlay>(planes, rgba, rgbaStride, width, rows, exposureScale, lit, litStride, litKnown);
+        if (planes.Overlay == null) MapMarkedRows<WithoutOverlay>(planes, rgba, rgbaStride, width, rows, exposureScale, lit, litKnown);
+        else MapMarkedRows<WithOverlay>(planes, rgba, rgbaStride, width, rows, exposureScale, lit, litKnown);
     }
 
     private static unsafe void MapMarkedRows<TOverlay>(in MarkedPlanes planes, uint* rgba, int rgbaStride, int width, int rows, float exposureScale,
-        ushort* lit, int litStride, bool litKnown) where TOverlay : struct, ITypeFlag
+        ushort* lit, bool litKnown) where TOverlay : struct, ITypeFlag
     {
         litKnown &= lit != null;
         int groups = (width + HdrFrame.GroupWidth - 1) / HdrFrame.GroupWidth, blocksPerRow = (groups + MarkBlock - 1) / MarkBlock;
@@ -188,24 +191,26 @@ public static class ToneMapper
         new Span<ushort>(marked, paddedBlocks).Clear();
         new Span<ushort>(dark, paddedBlocks).Clear();
         if (TOverlay.IsSet) new Span<ushort>(laid, paddedBlocks).Clear();
-        for (int row = 0; row < rows; row++)
-        {
-            uint* rowPixels = rgba + (long)row * rgbaStride;
-            byte* rowMarks = planes.Marks + row * planes.MarkStride;
-            byte* rowOverlayMarks = planes.OverlayMarks + row * planes.MarkStride;
-            ushort* rowLit = lit + row * litStride;
-            for (int block = 0, at = row * maskRowStride; block < blocksPerRow; block++, at++)
+        if (!TOverlay.IsSet && !prefetch && groups == MarkBlock && planes.MarkStride == MarkBlock && rows % 4 == 0) TakeTileMasks(planes.Marks, rows, marked, dark, lit, litKnown);
+        else
+            for (int row = 0; row < rows; row++)
             {
-                int count = Math.Min(MarkBlock, groups - block * MarkBlock);
-                ushort mask = TakeMarks(rowMarks + block * MarkBlock, count);
-                ushort overlaid = TOverlay.IsSet ? TakeMarks(rowOverlayMarks + block * MarkBlock, count) : (ushort)0;
-                marked[at] = mask;
-                if (TOverlay.IsSet) laid[at] = overlaid;
-                dark[at] = (ushort)((litKnown ? rowLit[block] : (1u << count) - 1) & ~(mask | overlaid));
-                if (prefetch) PrefetchGroups(rowPixels + block * MarkBlock * HdrFrame.GroupWidth, (uint)(mask | overlaid | dark[at]));
-                if (lit != null) rowLit[block] = (ushort)(mask | overlaid);
+                uint* rowPixels = rgba + (long)row * rgbaStride;
+                byte* rowMarks = planes.Marks + row * planes.MarkStride;
+                byte* rowOverlayMarks = planes.OverlayMarks + row * planes.MarkStride;
+                ushort* rowLit = lit + row;
+                for (int block = 0, at = row * maskRowStride; block < blocksPerRow; block++, at++)
+                {
+                    int count = Math.Min(MarkBlock, groups - block * MarkBlock);
+                    ushort mask = TakeMarks(rowMarks + block * MarkBlock, count);
+                    ushort overlaid = TOverlay.IsSet ? TakeMarks(rowOverlayMarks + block * MarkBlock, count) : (ushort)0;
+                    marked[at] = mask;
+                    if (TOverlay.IsSet) laid[at] = overlaid;
+                    dark[at] = (ushort)((litKnown ? rowLit[block * RgbaImage.LitBandRows] : (1u << count) - 1) & ~(mask | overlaid));
+                    if (prefetch) PrefetchGroups(rowPixels + block * MarkBlock * HdrFrame.GroupWidth, (uint)(mask | overlaid | dark[at]));
+                    if (lit != null) rowLit[block * RgbaImage.LitBandRows] = (ushort)(mask | overlaid);
+                }
             }
-        }
         var scale = Vector256.Create(exposureScale);
         fixed (byte* table = EncodedTable)
         {
@@ -352,6 +357,37 @@ public static class ToneMapper
         // A bit number is never negative: unsigned, the division and remainder are a shift and a mask.
         int block = (int)((uint)bit / MarkBlock), group = (int)((uint)bit % MarkBlock);
         return maskRowStride == 1 ? (wordRow + block, group) : (wordRow, (wordBlock + block) * MarkBlock + group);
+    }
+
+    /// <summary>
+    /// The masks of a star tile's rows: one whole block a row, and the rows' marks, masks and lit entries each one
+    /// after another, so four rows are one word throughout (a load, a compare and a store where a row at a time took
+    /// a loop per row and a load of the note per row, from lines far apart when the note was laid out row by row).
+    /// </summary>
+    private static unsafe void TakeTileMasks(byte* marks, int rows, ushort* marked, ushort* dark, ushort* lit, bool litKnown)
+    {
+        for (int word = 0; word < rows; word += 4)
+        {
+            ulong mask = TakeMarkWord(marks + word * MarkBlock);
+            *(ulong*)(marked + word) = mask;
+            *(ulong*)(dark + word) = (litKnown ? *(ulong*)(lit + word) : ulong.MaxValue) & ~mask;
+            if (lit != null) *(ulong*)(lit + word) = mask;
+        }
+    }
+
+    /// <summary>Bit g set when group g of the 4 × <see cref="MarkBlock"/> at <paramref name="marks"/> is marked; the marks are cleared as they are read.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe ulong TakeMarkWord(byte* marks)
+    {
+        if (Vector512.IsHardwareAccelerated)
+        {
+            Vector512<byte> block = Vector512.Load(marks);
+            Vector512<byte>.Zero.Store(marks);
+            return ~Vector512.Equals(block, Vector512<byte>.Zero).ExtractMostSignificantBits();
+        }
+        ulong word = 0;
+        for (int block = 0; block < 4; block++) word |= (ulong)TakeMarks(marks + block * MarkBlock, MarkBlock) << (block * MarkBlock);
+        return word;
     }
 
     /// <summary>Groups whose marks are read at once: a 128-bit vector of mark bytes, noted as one lit entry.</summary>

@@ -75,19 +75,22 @@ public class DeterminismTests
         Assert.Equal(fresh, image.ReadOnlyPixels.ToArray());
     }
 
-    public static TheoryData<bool, bool> FrameSequences => new()
+    public static TheoryData<bool, bool, int> FrameSequences => new()
     {
-        // with a layer (band-by-band composite path), with someone drawing on the image between frames
-        { false, false }, { false, true }, { true, false }, { true, true },
+        // with a layer (band-by-band composite path), with someone drawing on the image between frames, image width:
+        // 203 px rows do not start on cache lines (groups written one by one), 256 px rows do (whole lines, and a star
+        // tile's rows noted four at a time)
+        { false, false, 203 }, { false, true, 203 }, { true, false, 203 }, { true, true, 203 },
+        { false, false, 256 }, { false, true, 256 }, { true, false, 256 }, { true, true, 256 },
     };
 
     [Theory]
     [MemberData(nameof(FrameSequences))]
-    public void A_turning_view_rendered_frame_after_frame_into_one_image_matches_each_frame_rendered_afresh(bool withLayer, bool drawnOnBetween)
+    public void A_turning_view_rendered_frame_after_frame_into_one_image_matches_each_frame_rendered_afresh(bool withLayer, bool drawnOnBetween, int width)
     {
         // The renderer writes black only over the groups it left lit in the frame before, unless the image was handed
         // out to be written (instruments drawn on it): each frame must still be exactly what a fresh image gets.
-        var camera = new Camera(ProjectionKind.Perspective, 203, 120, Math.PI / 2, 0, Exposure.Manual(2));
+        var camera = new Camera(ProjectionKind.Perspective, width, 120, Math.PI / 2, 0, Exposure.Manual(2));
         var scene = new Scene(Sky);
         FrameRenderer NewRenderer(int threads)
         {
@@ -96,18 +99,18 @@ public class DeterminismTests
             return renderer;
         }
         FrameRenderer renderer = NewRenderer(2);
-        var image = new RgbaImage(203, 120);
+        var image = new RgbaImage(width, 120);
         for (int frame = 0; frame < 6; frame++)
         {
             // Turning 0.3° a frame, and at frame 3 fast enough for the CMB to fill the view (every pixel written).
             double rapidity = frame == 3 ? 12 : 0;
             Observer observer = new(ShipState.AtRest(default) with { Frame = new LorentzFrame(new Velocity(rapidity, Vec3.UnitZ), Rotation.Identity) },
                 Rotation.FromAxisAngle(Vec3.UnitY, frame * 0.3 * Math.PI / 180));
-            var fresh = new RgbaImage(203, 120);
+            var fresh = new RgbaImage(width, 120);
             NewRenderer(1).Render(scene, observer, camera, fresh);
             renderer.Render(scene, observer, camera, image);
             Assert.True(fresh.ReadOnlyPixels.SequenceEqual(image.ReadOnlyPixels), $"frame {frame} differs from a fresh render");
-            if (drawnOnBetween) image.Pixels.Slice(4 * 203 * 50, 4 * 203 * 3).Fill(0xC8);
+            if (drawnOnBetween) image.Pixels.Slice(4 * width * 50, 4 * width * 3).Fill(0xC8);
         }
     }
 
