@@ -267,9 +267,21 @@ public static class ToneMapper
         int maskRowStride, Vector256<float> scale, byte* table) where TOverlay : struct, ITypeFlag
     {
         const ulong FirstOfEachPair = 0x5555_5555_5555_5555;
+        // The planes' pointers in locals: read through the struct, they were fetched again for every group, since the
+        // stores into the planes might have changed them as far as the compiler knows.
+        float* red = planes.Red, green = planes.Green, blue = planes.Blue;
+        uint* overlay = planes.Overlay;
+        int planeStride = planes.Stride;
+        // From a word's first group to the next block's: a row down when rows are a block each, else along the row.
+        int planeBlockStep = maskRowStride == 1 ? planeStride : MarkBlock * HdrFrame.GroupWidth;
+        int imageBlockStep = maskRowStride == 1 ? rgbaStride : MarkBlock * HdrFrame.GroupWidth;
+        var black = Vector256.Create(unchecked((int)OpaqueBlack));
         for (int word = 0; word < paddedBlocks; word += 4)
         {
             (int wordRow, int wordBlock) = WordStart(word, maskRowStride);
+            int wordFirstPixel = wordBlock * MarkBlock * HdrFrame.GroupWidth;
+            int wordPixel = wordRow * planeStride + wordFirstPixel;
+            int* wordLine = (int*)(rgba + (long)wordRow * rgbaStride + wordFirstPixel);
             ulong mapped = *(ulong*)(marked + word), overlaid = TOverlay.IsSet ? *(ulong*)(laid + word) : 0, written = mapped | overlaid | *(ulong*)(dark + word);
             // Bit 2k stands for the line of groups 2k and 2k + 1; a block holds 16 groups, so no line spans two blocks.
             ulong mappedLines = (mapped | mapped >> 1) & FirstOfEachPair;
@@ -279,44 +291,46 @@ public static class ToneMapper
             // last frame's stars, 0.97–0.99× in one process).
             for (ulong lines = (written | written >> 1) & FirstOfEachPair & ~mappedLines; lines != 0; lines &= lines - 1)
             {
-                int bit = BitOperations.TrailingZeroCount(lines);
-                int* line = LineOf(bit, wordRow, wordBlock, maskRowStride, rgba, rgbaStride, planes.Stride, out int pixel);
-                var black = Vector256.Create(unchecked((int)OpaqueBlack));
-                Avx.StoreAlignedNonTemporal(line, TOverlay.IsSet ? LayOverGroup(black, planes.Overlay + pixel, underIsBlack: true) : black);
-                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, TOverlay.IsSet ? LayOverGroup(black, planes.Overlay + pixel + HdrFrame.GroupWidth, underIsBlack: true) : black);
+                int* line = GroupOf(BitOperations.TrailingZeroCount(lines), wordPixel, wordLine, planeBlockStep, imageBlockStep, out int pixel);
+                Avx.StoreAlignedNonTemporal(line, TOverlay.IsSet ? LayOverGroup(black, overlay + pixel, underIsBlack: true) : black);
+                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, TOverlay.IsSet ? LayOverGroup(black, overlay + pixel + HdrFrame.GroupWidth, underIsBlack: true) : black);
             }
             for (ulong lines = mappedLines; lines != 0; lines &= lines - 1)
             {
                 int bit = BitOperations.TrailingZeroCount(lines);
-                int* line = LineOf(bit, wordRow, wordBlock, maskRowStride, rgba, rgbaStride, planes.Stride, out int pixel);
+                int* line = GroupOf(bit, wordPixel, wordLine, planeBlockStep, imageBlockStep, out int pixel);
                 int pair = (int)(mapped >> bit) & 3;
                 if (pair != 3 && (!TOverlay.IsSet || ((overlaid >> bit) & 3) == 0))
                 {
                     // One group of the two to map and no overlay on either (as with most stars): which one is as likely
                     // as not, so it is picked by arithmetic, not by a branch the processor would miss every other line;
                     // the other is black.
-                    int second = pair >> 1, mappedOffset = second * HdrFrame.GroupWidth;
-                    Vector256<int> codes = MapGroup(planes.Red + pixel + mappedOffset, planes.Green + pixel + mappedOffset, planes.Blue + pixel + mappedOffset, scale, table);
-                    Avx.StoreAlignedNonTemporal(line + (HdrFrame.GroupWidth - mappedOffset), Vector256.Create(unchecked((int)OpaqueBlack)));
+                    int mappedOffset = (pair >> 1) * HdrFrame.GroupWidth, at = pixel + mappedOffset;
+                    Vector256<int> codes = MapGroup(red + at, green + at, blue + at, scale, table);
+                    Avx.StoreAlignedNonTemporal(line + (HdrFrame.GroupWidth - mappedOffset), black);
                     Avx.StoreAlignedNonTemporal(line + mappedOffset, codes);
                     continue;
                 }
-                Avx.StoreAlignedNonTemporal(line, GroupToWrite<TOverlay>(planes, pixel, mapped >> bit, overlaid >> bit, scale, table));
-                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth, GroupToWrite<TOverlay>(planes, pixel + HdrFrame.GroupWidth, mapped >> bit >> 1, overlaid >> bit >> 1, scale, table));
+                Avx.StoreAlignedNonTemporal(line, GroupToWrite<TOverlay>(red, green, blue, overlay, pixel, mapped >> bit, overlaid >> bit, scale, table));
+                Avx.StoreAlignedNonTemporal(line + HdrFrame.GroupWidth,
+                    GroupToWrite<TOverlay>(red, green, blue, overlay, pixel + HdrFrame.GroupWidth, mapped >> bit >> 1, overlaid >> bit >> 1, scale, table));
             }
         }
         // Non-temporal stores are weakly ordered: they must reach memory before another thread reads the image.
         Sse.StoreFence();
     }
 
-    /// <summary>The output line of bit <paramref name="bit"/> of a word of masks (see <see cref="Locate"/>), and its first pixel's index in planes <paramref name="planeStride"/> floats a row.</summary>
+    /// <summary>
+    /// Bit <paramref name="bit"/> of a word of masks (see <see cref="Locate"/>): its group's output line, and its first
+    /// pixel in the planes, from those of the word's first group and the steps from one block of the word to the next.
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static unsafe int* LineOf(int bit, int wordRow, int wordBlock, int maskRowStride, uint* rgba, int rgbaStride, int planeStride, out int pixel)
+    private static unsafe int* GroupOf(int bit, int wordPixel, int* wordLine, int planeBlockStep, int imageBlockStep, out int pixel)
     {
-        (int row, int group) = Locate(wordRow, wordBlock, bit, maskRowStride);
-        int first = group * HdrFrame.GroupWidth;
-        pixel = row * planeStride + first;
-        return (int*)(rgba + (long)row * rgbaStride + first);
+        // A bit number is never negative: unsigned, the division and remainder are a shift and a mask.
+        int block = (int)((uint)bit / MarkBlock), along = (int)((uint)bit % MarkBlock) * HdrFrame.GroupWidth;
+        pixel = wordPixel + block * planeBlockStep + along;
+        return wordLine + block * imageBlockStep + along;
     }
 
     /// <summary>
@@ -324,12 +338,12 @@ public static class ToneMapper
     /// black (what an unmarked group holds), with its overlay laid over it when bit 0 of <paramref name="overlaid"/> is.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static unsafe Vector256<int> GroupToWrite<TOverlay>(in MarkedPlanes planes, int pixel, ulong mapped, ulong overlaid, Vector256<float> scale, byte* table)
-        where TOverlay : struct, ITypeFlag
+    private static unsafe Vector256<int> GroupToWrite<TOverlay>(float* red, float* green, float* blue, uint* overlay, int pixel, ulong mapped, ulong overlaid,
+        Vector256<float> scale, byte* table) where TOverlay : struct, ITypeFlag
     {
         bool isMapped = (mapped & 1) != 0;
-        Vector256<int> pixels = isMapped ? MapGroup(planes.Red + pixel, planes.Green + pixel, planes.Blue + pixel, scale, table) : Vector256.Create(unchecked((int)OpaqueBlack));
-        return TOverlay.IsSet && (overlaid & 1) != 0 ? LayOverGroup(pixels, planes.Overlay + pixel, underIsBlack: !isMapped) : pixels;
+        Vector256<int> pixels = isMapped ? MapGroup(red + pixel, green + pixel, blue + pixel, scale, table) : Vector256.Create(unchecked((int)OpaqueBlack));
+        return TOverlay.IsSet && (overlaid & 1) != 0 ? LayOverGroup(pixels, overlay + pixel, underIsBlack: !isMapped) : pixels;
     }
 
     /// <summary>
@@ -438,10 +452,12 @@ public static class ToneMapper
         Avx.Store(red, Vector256<float>.Zero);
         Avx.Store(green, Vector256<float>.Zero);
         Avx.Store(blue, Vector256<float>.Zero);
-        uint lit = Vector256.GreaterThan(r | g | b, Vector256<int>.Zero).ExtractMostSignificantBits();
+        Vector256<int> litLanes = Vector256.GreaterThan(r | g | b, Vector256<int>.Zero);
+        uint lit = litLanes.ExtractMostSignificantBits();
         var black = Vector256.Create(unchecked((int)OpaqueBlack));
         if (BitOperations.PopCount(lit) <= 2)
         {
+            if (Avx512F.VL.IsSupported) return EncodeLitPair(r, g, b, litLanes, table);
             // The first and last lit pixel (the same one when only one is lit; pixel 0, black, when none is).
             int first = BitOperations.TrailingZeroCount(lit | 1u << 31) & 7, last = 31 - BitOperations.LeadingZeroCount(lit | 1);
             Vector256<int> lanes = Vector256.Create(0, 1, 2, 3, 4, 5, 6, 7);
@@ -455,13 +471,32 @@ public static class ToneMapper
         return r | Avx2.ShiftLeftLogical(g, 8) | Avx2.ShiftLeftLogical(b, 16) | black;
     }
 
+    /// <summary>
+    /// The group's codes when at most two of its pixels are lit (AVX-512): their entries packed into the low lanes,
+    /// looked up one by one, and put back in place over black. Entries are under 2¹⁶, so red and green share a lane
+    /// and each channel of both pixels leaves the vector unit in one move, where picking each pixel's lane out of each
+    /// channel took a permute and a move apiece.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static unsafe Vector256<int> EncodeLitPair(Vector256<int> red, Vector256<int> green, Vector256<int> blue, Vector256<int> litLanes, byte* table)
+    {
+        Vector256<uint> lanes = litLanes.AsUInt32();
+        ulong redGreen = Avx512F.VL.Compress(Vector256<uint>.Zero, lanes, (red | Vector256.ShiftLeft(green, 16)).AsUInt32()).AsUInt64().ToScalar();
+        ulong blues = Avx512F.VL.Compress(Vector256<uint>.Zero, lanes, blue.AsUInt32()).AsUInt64().ToScalar();
+        uint first = table[(ushort)redGreen] | (uint)table[(ushort)(redGreen >> 16)] << 8 | (uint)table[(uint)blues] << 16 | OpaqueBlack;
+        uint second = table[(ushort)(redGreen >> 32)] | (uint)table[redGreen >> 48] << 8 | (uint)table[blues >> 32] << 16 | OpaqueBlack;
+        Vector256<uint> codes = Vector128.CreateScalarUnsafe(first | (ulong)second << 32).AsUInt32().ToVector256Unsafe();
+        return Avx512F.VL.Expand(Vector256.Create(OpaqueBlack), lanes, codes).AsInt32();
+    }
+
     /// <summary>The RGBA code of pixel <paramref name="lane"/> of a group, from its table entries.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static unsafe int Encode(Vector256<int> red, Vector256<int> green, Vector256<int> blue, int lane, byte* table)
     {
-        Vector256<int> pick = Vector256.Create(lane);
-        return table[Avx2.PermuteVar8x32(red, pick).ToScalar()] | table[Avx2.PermuteVar8x32(green, pick).ToScalar()] << 8
-            | table[Avx2.PermuteVar8x32(blue, pick).ToScalar()] << 16 | unchecked((int)OpaqueBlack);
+        // Indices are never negative: unsigned, they index the table without a sign extension each.
+        Vector256<uint> pick = Vector256.Create((uint)lane);
+        return table[Avx2.PermuteVar8x32(red.AsUInt32(), pick).ToScalar()] | table[Avx2.PermuteVar8x32(green.AsUInt32(), pick).ToScalar()] << 8
+            | table[Avx2.PermuteVar8x32(blue.AsUInt32(), pick).ToScalar()] << 16 | unchecked((int)OpaqueBlack);
     }
 
     /// <summary>
