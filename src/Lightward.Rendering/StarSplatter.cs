@@ -1,5 +1,6 @@
 using System.Numerics;
 using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using System.Runtime.Intrinsics;
 using Lightward.Optics;
 using Lightward.Rendering.Projections;
@@ -328,18 +329,42 @@ public sealed class StarSplatter
             Vector<int> columnSpan = Vector.ShiftRightArithmetic(Vector.Min(left + Vector<int>.One, lastColumn), TileShift) - firstTileColumn;
             Vector<int> firstTile = firstBand * tilesPerBand + firstTileColumn;
             Vector<int> span = Vector.ShiftLeft(bandSpan, SpanShift) | columnSpan;
-            for (int lane = 0; lane < Vector<float>.Count; lane++)
+            // Every lane's notes in a store or two (a hidden star's tiles are never read), then the shown stars counted
+            // in their tiles: lane by lane, the vectors went to the stack and back once per lane, each reload waiting
+            // on the store before it.
+            StoreLowBytes(Vector.AndNot(new Vector<int>(Hidden), shows), _footprint, i);
+            firstTile.CopyTo(_firstTile, i);
+            StoreLowBytes(span, _tileSpan, i);
+            for (uint lanes = LaneMask(shows); lanes != 0; lanes &= lanes - 1)
             {
-                if (shows[lane] == 0)
-                {
-                    _footprint[i + lane] = Hidden;
-                    continue;
-                }
-                _footprint[i + lane] = Bilinear;
-                Place(i + lane, firstTile[lane], span[lane], cursors);
+                int star = i + BitOperations.TrailingZeroCount(lanes);
+                Count(_firstTile[star], _tileSpan[star], cursors);
             }
         }
         for (; i < end; i++) AssignStar(i, cursors);
+    }
+
+    /// <summary>The low byte of each lane of <paramref name="values"/>, into <paramref name="bytes"/> from <paramref name="at"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void StoreLowBytes(Vector<int> values, byte[] bytes, int at)
+    {
+        // Narrowing keeps the low bytes in lane order: the first Vector<int>.Count bytes are the lanes'.
+        Vector<short> halves = Vector.Narrow(values, values);
+        Vector<byte> lowBytes = Vector.AsVectorByte(Vector.Narrow(halves, halves));
+        if (Vector<int>.Count == sizeof(ulong)) MemoryMarshal.Write(bytes.AsSpan(at, sizeof(ulong)), Vector.AsVectorUInt64(lowBytes)[0]);
+        else
+            for (int lane = 0; lane < Vector<int>.Count; lane++) bytes[at + lane] = lowBytes[lane];
+    }
+
+    /// <summary>Bit k set when lane k of <paramref name="mask"/> is set (all ones).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static uint LaneMask(Vector<int> mask)
+    {
+        if (Vector<int>.Count == Vector256<int>.Count) return mask.AsVector256().ExtractMostSignificantBits();
+        uint lanes = 0;
+        for (int lane = 0; lane < Vector<int>.Count; lane++)
+            if (mask[lane] != 0) lanes |= 1u << lane;
+        return lanes;
     }
 
     /// <summary><see cref="AssignFootprints"/> for one star.</summary>
@@ -371,6 +396,12 @@ public sealed class StarSplatter
     {
         _firstTile[i] = firstTile;
         _tileSpan[i] = (byte)span;
+        Count(firstTile, span, cursors);
+    }
+
+    /// <summary>Counts a star in each tile it touches, from <paramref name="firstTile"/> over <paramref name="span"/>.</summary>
+    private void Count(int firstTile, int span, int cursors)
+    {
         // Nearly every star lies in one tile: counted without the loops, whose exits would be guessed per star.
         if (span == 0)
         {
