@@ -1,12 +1,13 @@
 namespace Lightward.Spacetime;
 
 /// <summary>
-/// Runs a loop's items over the threads one item at a time, each thread taking the lowest item no thread has taken
-/// yet. <see cref="Parallel.For(int, int, ParallelOptions, Action{int})"/> hands each thread a block of neighbouring
-/// items and lets it take them in growing batches, which suits items of equal cost; a frame's items are not (the few
-/// bands that hold a body, the grid lines that pass near the camera), and with two threads one of them often ended up
-/// working through all the heavy items while the other sat idle. Every item still writes only its own output, so the
-/// result never depends on which thread ran it.
+/// Runs a loop's items over the threads one item at a time: each thread takes the items of its own run (a stretch of
+/// the items, the same for the same thread in every loop of a frame) in order, then the last items left in the
+/// others' runs (see <see cref="Queue"/>). <see cref="Parallel.For(int, int, ParallelOptions, Action{int})"/> lets
+/// threads take neighbouring items in growing batches, which suits items of equal cost; a frame's items are not (the
+/// few bands that hold a body, the grid lines that pass near the camera), and with two threads one of them often
+/// ended up working through all the heavy items while the other sat idle. Every item still writes only its own
+/// output, so the result never depends on which thread ran it.
 /// <para>
 /// A frame runs several such loops back to back with short serial steps between them. Thread-pool workers go to
 /// sleep between loops, and waking one costs 10–20 µs on a 2-core VM, every loop. So the calling thread is joined by
@@ -32,14 +33,14 @@ public static class ParallelItems
         int count = toExclusive - fromInclusive;
         if (count <= 0) return;
         int threads = Math.Min(count, parallel.MaxDegreeOfParallelism > 0 ? parallel.MaxDegreeOfParallelism : Environment.ProcessorCount);
-        var queue = new Queue(fromInclusive, toExclusive);
+        var queue = new Queue(fromInclusive, toExclusive, threads);
         if (threads == 1)
         {
-            queue.Drain(localInit, body, localFinally);
+            queue.Drain(0, localInit, body, localFinally);
             return;
         }
-        void Drain() => queue.Drain(localInit, body, localFinally);
-        if (!Team.TryRun(Drain, threads - 1)) Parallel.For(0, threads, parallel, _ => Drain());
+        void Drain(int run) => queue.Drain(run, localInit, body, localFinally);
+        if (!Team.TryRun(Drain, threads - 1)) Parallel.For(0, threads, parallel, Drain);
     }
 
     /// <summary>How long a helper keeps spinning for the next loop before it sleeps: longer than the serial steps between a frame's loops.</summary>
@@ -52,10 +53,11 @@ public static class ParallelItems
         private static int _inUse;
 
         /// <summary>
-        /// Runs <paramref name="drain"/> on this thread and on up to <paramref name="helpers"/> helpers, returning once
-        /// all have finished; false (nothing run) when the helpers are taken.
+        /// Runs <paramref name="drain"/> on this thread (with run 0) and on up to <paramref name="helpers"/> helpers
+        /// (helper i with run i + 1, so that each thread keeps its run from loop to loop), returning once all have
+        /// finished; false (nothing run) when the helpers are taken.
         /// </summary>
-        public static bool TryRun(Action drain, int helpers)
+        public static bool TryRun(Action<int> drain, int helpers)
         {
             helpers = Math.Min(helpers, Helpers.Length);
             if (helpers == 0 || Interlocked.CompareExchange(ref _inUse, 1, 0) != 0) return false;
@@ -65,7 +67,7 @@ public static class ParallelItems
                 for (int i = 0; i < helpers; i++) Helpers[i].Post(drain);
                 try
                 {
-                    drain();
+                    drain(0);
                 }
                 catch (Exception failure)
                 {
@@ -88,14 +90,19 @@ public static class ParallelItems
     {
         private const int Idle = 0, Posted = 1, Running = 2;
         private int _state;
-        private Action? _job;
+        private readonly int _run;
+        private Action<int>? _job;
         private Exception? _failure;
         private readonly SemaphoreSlim _wake = new(0);
         private int _sleeping;
 
-        public Helper(int index) => new Thread(Work) { IsBackground = true, Name = $"ParallelItems helper {index + 1}" }.Start();
+        public Helper(int index)
+        {
+            _run = index + 1;
+            new Thread(Work) { IsBackground = true, Name = $"ParallelItems helper {_run}" }.Start();
+        }
 
-        public void Post(Action job)
+        public void Post(Action<int> job)
         {
             _job = job;
             _failure = null;
@@ -128,7 +135,7 @@ public static class ParallelItems
                 {
                     try
                     {
-                        _job!();
+                        _job!(_run);
                     }
                     catch (Exception failure)
                     {
@@ -151,21 +158,37 @@ public static class ParallelItems
         }
     }
 
-    private sealed class Queue(int first, int end)
+    /// <summary>
+    /// The items cut into one run per thread, in order: each thread takes its own run's items from the front and, once
+    /// that is empty, the last items of the other runs, one at a time. So a thread works through the same stretch of
+    /// items in every loop of a frame and finds in its own core's caches what it wrote in the loop before (a star
+    /// chunk's pixel positions, then its footprints); handed out in turn, an item went to either core and its data
+    /// often had to come over from the other. Taking the others' items one by one still evens out unequal items.
+    /// </summary>
+    private sealed class Queue
     {
-        private int _next = first - 1;
+        /// <summary>Per run: its next item from the front (high half) and its end (low half), claimed by compare-and-swap.</summary>
+        private readonly long[] _runs;
         /// <summary>Set when an item failed, so the other threads stop taking items.</summary>
         private volatile bool _failed;
 
-        public void Drain<TLocal>(Func<TLocal> localInit, Func<int, TLocal, TLocal> body, Action<TLocal> localFinally)
+        public Queue(int first, int end, int runs)
+        {
+            _runs = new long[runs];
+            long count = end - first;
+            for (int run = 0; run < runs; run++) _runs[run] = Pack(first + (int)(count * run / runs), first + (int)(count * (run + 1) / runs));
+        }
+
+        /// <summary>Runs items for one thread, starting with run <paramref name="own"/>'s.</summary>
+        public void Drain<TLocal>(int own, Func<TLocal> localInit, Func<int, TLocal, TLocal> body, Action<TLocal> localFinally)
         {
             // A thread that starts after the others took every item has nothing to set up for.
-            if (Volatile.Read(ref _next) + 1 >= end) return;
+            if (!TryTake(own, out int item)) return;
             TLocal local = localInit();
             try
             {
-                int item;
-                while (!_failed && (item = Interlocked.Increment(ref _next)) < end) local = body(item, local);
+                do local = body(item, local);
+                while (!_failed && TryTake(own, out item));
             }
             catch
             {
@@ -177,5 +200,28 @@ public static class ParallelItems
                 localFinally(local);
             }
         }
+
+        /// <summary>The next item of run <paramref name="own"/>, else the last left in another run; false when none is left.</summary>
+        private bool TryTake(int own, out int item)
+        {
+            if (TryTakeFrom(own, fromFront: true, out item)) return true;
+            for (int other = 1; other < _runs.Length; other++)
+                if (TryTakeFrom((own + other) % _runs.Length, fromFront: false, out item)) return true;
+            return false;
+        }
+
+        private bool TryTakeFrom(int run, bool fromFront, out int item)
+        {
+            while (true)
+            {
+                long state = Volatile.Read(ref _runs[run]);
+                int front = (int)(state >> 32), back = (int)state;
+                item = fromFront ? front : back - 1;
+                if (front >= back) return false;
+                if (Interlocked.CompareExchange(ref _runs[run], fromFront ? Pack(front + 1, back) : Pack(front, back - 1), state) == state) return true;
+            }
+        }
+
+        private static long Pack(int front, int back) => (long)front << 32 | (uint)back;
     }
 }
