@@ -549,6 +549,7 @@ public sealed class StarSplatter
                     lit + _image.LitEntry(clip.FirstRow, tileColumn * LitEntriesPerTile), _litKnown);
             }
         }
+        ToneMapper.FinishWrites();
     }
 
     /// <summary>
