@@ -86,7 +86,8 @@ public sealed class StarSplatter
     private bool _litKnown;
     private int _width, _height;
     private float _exposureScale;
-    private readonly Action<int> _assignChunk, _fillChunk, _splatBandIntoFrame, _splatBandIntoImage;
+    private readonly Action<int> _assignChunk, _fillChunk, _splatBandIntoFrame;
+    private readonly Func<int, bool, bool> _splatBandIntoImage;
     private readonly Func<LevelHistogram> _startLevels;
     private readonly Func<int, LevelHistogram, LevelHistogram> _projectChunk;
     private readonly Action<LevelHistogram> _mergeLevels;
@@ -99,7 +100,11 @@ public sealed class StarSplatter
         _assignChunk = AssignFootprints;
         _fillChunk = FillTiles;
         _splatBandIntoFrame = SplatBandIntoFrame;
-        _splatBandIntoImage = SplatBandIntoImage;
+        _splatBandIntoImage = (band, _) =>
+        {
+            SplatBandIntoImage(band);
+            return true;
+        };
     }
 
     /// <summary>
@@ -160,7 +165,8 @@ public sealed class StarSplatter
         _image = image;
         _litKnown = image.LitGroupsKnown;
         image.LitGroupsKnown = false; // until every band is written
-        ParallelItems.For(0, _bandCount, parallel, _splatBandIntoImage);
+        // Each thread fences its non-temporal writes once, when it has no more bands (once per band was about 1 % slower).
+        ParallelItems.For(0, _bandCount, parallel, static () => true, _splatBandIntoImage, static _ => ToneMapper.FinishWrites());
         image.LitGroupsKnown = true;
     }
 
@@ -549,7 +555,6 @@ public sealed class StarSplatter
                     lit + _image.LitEntry(clip.FirstRow, tileColumn * LitEntriesPerTile), _litKnown);
             }
         }
-        ToneMapper.FinishWrites();
     }
 
     /// <summary>
