@@ -58,9 +58,10 @@ public static class ToneMapper
     /// Unless the frame is <see cref="HdrFrame.WhollyTouched"/>, only the touched pixel groups are read (the rest are
     /// zero, so they map to black and are written as black) and their marks are cleared; <paramref name="lit"/> (laid
     /// out like the image's note of lit groups, from the band holding HDR row 0 of <paramref name="rgba"/>, with
-    /// <paramref name="firstRow"/> a band's first; null for none) is used and updated as in <see cref="MapMarkedRows"/>. The marked groups of <paramref name="overlay"/> (unless null; of the
-    /// frame's width, its row <paramref name="overlayFirstRow"/> holding HDR row <paramref name="firstRow"/>) are laid
-    /// over the mapped pixels and emptied.
+    /// <paramref name="firstRow"/> a band's first; null for none) is used and updated as in <see cref="MapMarkedRows"/>.
+    /// The marked groups of <paramref name="overlay"/> (unless null; of the frame's width, its row
+    /// <paramref name="overlayFirstRow"/> holding HDR row <paramref name="firstRow"/>) are laid over the mapped pixels
+    /// and emptied. The writes are fenced before it returns, so another thread may read the image then.
     /// </summary>
     public static unsafe void MapAndClearRows(HdrFrame hdr, float exposureScale, uint* rgba, ushort* lit, bool litKnown, int firstRow, int endRow,
         DisplayOverlay? overlay = null, int overlayFirstRow = 0)
