@@ -101,7 +101,8 @@ public sealed class LevelHistogram
     public void Add(LevelHistogram other)
     {
         if (other.Count == 0) return;
-        // A vector of bins at a time: a frame merges one histogram per star chunk on one thread, between parallel passes.
+        // A vector of bins at a time: merges run while other threads wait (a frame's per-thread star histograms, the
+        // near field's per-band surface histograms).
         Span<int> bins = _bins;
         ReadOnlySpan<int> added = other._bins;
         for (int bin = 0; bin < bins.Length; bin += Vector<int>.Count)

@@ -293,7 +293,7 @@ public sealed class StarSplatter
             Vector<int> onImage = Vector.GreaterThanOrEqual(x, Vector<float>.Zero) & Vector.LessThan(x, right)
                 & Vector.GreaterThanOrEqual(y, Vector<float>.Zero) & Vector.LessThan(y, bottom);
             if (onImage == Vector<int>.Zero) continue;
-            if (Vector<float>.Count == Vector256<float>.Count) levels.Add(level.AsVector256(), Vector.AsVectorSingle(onImage).AsVector256().ExtractMostSignificantBits());
+            if (Vector<float>.Count == Vector256<float>.Count) levels.Add(level.AsVector256(), LaneMask(onImage));
             else
                 for (int lane = 0; lane < Vector<float>.Count; lane++)
                     if (onImage[lane] != 0) levels.Add(level[lane]);
